@@ -1,0 +1,281 @@
+"""The public entry point: ``advise(df, task, ...)`` runs the engine (profile → designs →
+scoring → hazards) and returns an Advice, which can draw its top designs and display itself."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+
+import numpy as np
+import pandas as pd
+
+from .datastats import choose_bins, design_stats, working_frame
+from .designs import Design, candidates, choose_roles
+from .errors import PlotwiseError
+from .hazards import SEVERITIES, Hazard, HazardContext, run_checks
+from .profile import FieldProfile, Profile, profile_frame
+from .rules import TASKS, THRESHOLDS
+from .scoring import rank, score_design
+
+# Kinds that draw raw values on a position axis and so can take a log axis for skewed data.
+LOG_KINDS = ("histogram", "density", "ecdf", "box", "violin", "strip", "scatter", "hexbin")
+AGGS = ("sum", "mean", "median", "count")
+
+
+@dataclass
+class Advice:
+    """What plotwise recommends for one frame and task."""
+
+    task: str | None
+    profile: Profile
+    designs: list[Design]
+    hazards: list[Hazard]
+    notes: list[str] = field(default_factory=list)
+    top: int = 3
+    _df: pd.DataFrame | None = field(default=None, repr=False, compare=False)
+
+    @property
+    def fields(self) -> dict[str, FieldProfile]:
+        return self.profile.fields
+
+    @property
+    def best(self) -> Design:
+        return self.designs[0]
+
+    def design(self, kind: str, task: str | None = None) -> Design:
+        """The best-ranked design of ``kind`` (and ``task``)."""
+        for d in self.designs:
+            if d.kind == kind and (task is None or d.task == task):
+                return d
+        kinds = ", ".join(dict.fromkeys(d.kind for d in self.designs))
+        raise PlotwiseError(f"no {kind!r} design in this advice; it has: {kinds}.")
+
+    def shown(self, top: int | None = None) -> list[Design]:
+        return self.designs[: (top or self.top)]
+
+    def show(self, top: int | None = None):
+        """A matplotlib Figure with the top designs side by side (not shown through pyplot)."""
+        from .render import draw_row
+
+        return draw_row(self.shown(top), self._frame())
+
+    def draw(self, which: int | str | Design = 0, ax=None):
+        """Draw one design (index, kind or Design) on ``ax``; a new Figure when ax is None."""
+        from matplotlib.figure import Figure
+
+        from .render import PANEL_HEIGHT_IN, PANEL_WIDTH_IN, draw, plot_style
+
+        d = self._pick(which)
+        if ax is None:
+            with plot_style():
+                fig = Figure(figsize=(PANEL_WIDTH_IN * 1.3, PANEL_HEIGHT_IN), layout="constrained")
+                ax = fig.subplots()
+        draw(d, self._frame(), ax)
+        return ax
+
+    def code(self, which: int | str | Design = 0, name: str = "df") -> str:
+        return self._pick(which).code(name)
+
+    def table(self) -> pd.DataFrame:
+        """All candidate designs, ranked: rank, kind, task, score, the one-line reason."""
+        return pd.DataFrame({
+            "rank": range(1, len(self.designs) + 1),
+            "kind": [d.title for d in self.designs],
+            "task": [d.task for d in self.designs],
+            "score": [round(d.score, 2) for d in self.designs],
+            "reason": [d.summary() for d in self.designs],
+        })
+
+    def hazard_codes(self) -> list[str]:
+        return [h.code for h in self.hazards]
+
+    def _pick(self, which) -> Design:
+        if isinstance(which, Design):
+            return which
+        if isinstance(which, str):
+            return self.design(which)
+        try:
+            return self.designs[which]
+        except (IndexError, TypeError):
+            raise PlotwiseError(
+                f"no design {which!r}; pick 0..{len(self.designs) - 1} or a kind name."
+            ) from None
+
+    def _frame(self) -> pd.DataFrame:
+        if self._df is None:
+            raise PlotwiseError("this advice holds no data to draw.")
+        return self._df
+
+    # Display ---------------------------------------------------------------------------------
+    def text(self) -> str:
+        from .display import advice_text
+
+        return advice_text(self)
+
+    def html(self, image: bool = True, profile: bool = False) -> str:
+        from .display import advice_html
+
+        return advice_html(self, image=image, profile=profile)
+
+    def __str__(self) -> str:
+        return self.text()
+
+    def __repr__(self) -> str:
+        kinds = ", ".join(d.title for d in self.shown())
+        return (f"<Advice task={self.task!r}: {len(self.designs)} designs (top: {kinds}); "
+                f"{len(self.hazards)} hazards>")
+
+    def _repr_mimebundle_(self, include=None, exclude=None):
+        from .display import advice_bundle
+
+        return advice_bundle(self)
+
+
+def _check_task(task) -> str | None:
+    if task is None:
+        return None
+    if not isinstance(task, str) or task.strip().lower() not in TASKS:
+        raise PlotwiseError(f"unknown task {task!r}; use one of: {', '.join(TASKS)} "
+                            "(or leave it out to rank across all of them).")
+    return task.strip().lower()
+
+
+def _check_range(value_range):
+    if value_range is None:
+        return None
+    try:
+        lo, hi = (float(v) for v in value_range)
+    except (TypeError, ValueError):
+        raise PlotwiseError("value_range must be two numbers (low, high), e.g. (0, 100).") from None
+    if not (np.isfinite(lo) and np.isfinite(hi) and lo < hi):
+        raise PlotwiseError(f"value_range {value_range!r} must be two finite numbers, low < high.")
+    return lo, hi
+
+
+def _skewed(f: FieldProfile | None) -> bool:
+    return (f is not None and f.level == "quantitative" and f.skew is not None
+            and f.minimum is not None and f.minimum > 0 and f.skew > THRESHOLDS["skew_log"])
+
+
+def _advise_task(df, profile, task, x, y, hue, agg, value_range):
+    roles = choose_roles(profile, task, x, y, hue, df)
+    designs = candidates(profile, task, roles, agg)
+    if not designs:
+        raise PlotwiseError(f"no design can show {task} for these columns.")
+    stat = designs[0].stat if designs[0].stat not in ("distribution", "raw") else "sum"
+    for d in designs:
+        if d.stat not in ("distribution", "raw", "difference"):
+            stat = d.stat
+            break
+    stats = design_stats(df, profile, task, roles.x, roles.y, roles.hue, stat)
+    if stats["points"] == 0:
+        cols = ", ".join(repr(c) for c in dict.fromkeys([roles.x, roles.y, roles.hue]) if c)
+        raise PlotwiseError(f"no row has values in all of {cols}; nothing to draw for {task}.")
+    extra_reasons: dict[int, list[str]] = {}
+    bins = None
+    if task == "distribution" and profile.fields[roles.x].level == "quantitative":
+        w = working_frame(df, profile, [roles.x])
+        vals = w[roles.x].dropna().to_numpy(dtype=float)
+        bins = choose_bins(vals, log=_skewed(profile.fields[roles.x]))
+    for d in designs:
+        d.profile = profile
+        logs = [c for c in (d.x, d.y) if c and _skewed(profile.fields.get(c))]
+        if logs and d.kind in LOG_KINDS:
+            d.options["log_columns"] = logs
+            d.log_scale = bool(logs)
+            if logs:
+                extra_reasons[id(d)] = [
+                    f"log axis for {', '.join(repr(c) for c in logs)}: right-skewed (skewness "
+                    f"{profile.fields[logs[0]].skew:.1f}), so equal steps mean equal ratios"]
+        if d.kind in ("line", "area") and stats.get("time_gaps"):
+            d.options["break_gaps"] = True
+        if d.kind == "histogram" and bins is not None:
+            d.options["bins"] = bins[0]
+            extra_reasons.setdefault(id(d), []).append(bins[1])
+        score_design(d, profile, stats)
+        d.reasons[1:1] = extra_reasons.get(id(d), [])
+        if roles.notes:
+            d.reasons.append("columns chosen by plotwise: " + "; ".join(roles.notes))
+    ctx = HazardContext(df=df, profile=profile, task=task, x=roles.x, y=roles.y, hue=roles.hue,
+                        stat=stat, stats=stats, value_range=value_range,
+                        working=working_frame(df, profile, [c for c in dict.fromkeys(
+                            [roles.x, roles.y, roles.hue]) if c]))
+    wide = run_checks(ctx, designs)
+    return designs, wide, roles.notes
+
+
+def _distinct(designs: list[Design]) -> list[Design]:
+    """Across tasks the same chart can come up twice (a slope chart for compare and for trend):
+    keep the better-scored one."""
+    best: dict[tuple, Design] = {}
+    for d in designs:
+        key = (d.kind, d.x, d.y, d.hue, d.facet, d.stat, bool(d.options.get("share")))
+        if key not in best or d.score > best[key].score:
+            best[key] = d
+    return [d for d in designs if best[(d.kind, d.x, d.y, d.hue, d.facet, d.stat,
+                                        bool(d.options.get("share")))] is d]
+
+
+def _favour_richer(designs: list[Design]) -> None:
+    """With no task stated, a design that relates more columns answers more of the question:
+    scale scores by 0.85 + 0.15 × (columns used / most columns any design uses) (our own rule)."""
+    most = max(len(d.columns) for d in designs)
+    for d in designs:
+        factor = 0.85 + 0.15 * len(d.columns) / most
+        if factor < 1:
+            d.score = round(d.score * factor, 4)
+            d.reasons.append(f"no task given: relates {len(d.columns)} of the {most} columns the "
+                             f"richest design relates → score × {factor:.2f} = {d.score:.2f}")
+
+
+def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | None = None,
+           value_range=None, top: int = 3) -> Advice:
+    """Rank chart designs for ``task`` on ``df`` and flag what could mislead.
+
+    task: one of compare, trend, proportion, correlate, distribution; None ranks across the
+    tasks the columns support. x, y, hue: column names (inferred when left out). agg: how
+    compare/trend aggregate rows per category (sum, mean, median, count). value_range: a
+    (low, high) value axis you intend to use; plotwise checks it (e.g. for a truncated baseline).
+    """
+    task = _check_task(task)
+    if agg is not None and agg not in AGGS:
+        raise PlotwiseError(f"unknown agg {agg!r}; use one of: {', '.join(AGGS)}.")
+    value_range = _check_range(value_range)
+    if not isinstance(top, int) or top < 1:
+        raise PlotwiseError("top must be a whole number ≥ 1.")
+    profile = profile_frame(df)
+    tasks = [task] if task else list(TASKS)
+    designs: list[Design] = []
+    wide: list[tuple[str, Hazard]] = []
+    notes: list[str] = []
+    errors = []
+    for t in tasks:
+        try:
+            ds, hz, nt = _advise_task(df, profile, t, x, y, hue, agg, value_range)
+        except PlotwiseError as exc:
+            if task:
+                raise
+            errors.append(f"{t}: {exc}")
+            continue
+        designs += ds
+        wide += [(t, h) for h in hz]
+        notes += [f"{t}: {n}" if not task else n for n in nt]
+    if not designs:
+        raise PlotwiseError("no task fits these columns:\n  " + "\n  ".join(errors))
+    if task is None:
+        designs = _distinct(designs)
+        _favour_richer(designs)
+    ranked = rank(designs)
+    shown_tasks = {d.task for d in ranked[:top]}
+    merged: dict[tuple[str, str], Hazard] = {}
+    found = [h for t, h in wide if t in shown_tasks] + [h for d in ranked[:top] for h in d.hazards]
+    for h in found:
+        key = (h.code, h.message)
+        if key in merged:  # the same finding for several shown designs: one entry, all kinds
+            old = merged[key]
+            merged[key] = replace(old, kinds=tuple(dict.fromkeys(old.kinds + h.kinds)))
+        else:
+            merged[key] = h
+    hazards = list(merged.values())
+    hazards.sort(key=lambda h: -SEVERITIES.index(h.severity))
+    return Advice(task=task, profile=profile, designs=ranked, hazards=hazards, notes=notes,
+                  top=top, _df=df)

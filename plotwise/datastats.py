@@ -1,0 +1,149 @@
+"""Facts about the data that scoring and hazard checks need beyond the column profile: the
+numbers a design would draw (grouped totals or means), group sizes, overplotting, correlation.
+Works on a small frame of the used columns only; the caller's frame is never changed."""
+
+from __future__ import annotations
+
+import warnings
+
+import numpy as np
+import pandas as pd
+
+from .profile import Profile
+from .rules import PANEL_DPI, PANEL_SIZE_IN, SCATTER_MARKER_AREA_PT2
+
+
+def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.DataFrame:
+    """The used columns under their string labels, with dates parsed, durations in seconds and
+    infinities as missing. Rows with any missing value are kept (callers drop as they need)."""
+    data = {}
+    for label in columns:
+        f = profile.fields[label]
+        s = df[f.name]
+        if f.parse_dates:
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                s = pd.to_datetime(s, errors="coerce", format="ISO8601")
+        elif f.is_timedelta:
+            s = s.dt.total_seconds()
+        elif f.level in ("quantitative", "temporal") and pd.api.types.is_numeric_dtype(s.dtype) \
+                and not pd.api.types.is_bool_dtype(s.dtype):
+            s = pd.to_numeric(s, errors="coerce").astype("float64").replace([np.inf, -np.inf], np.nan)
+        data[label] = s.reset_index(drop=True)
+    return pd.DataFrame(data)
+
+
+def aggregate(w: pd.DataFrame, by: list[str], y: str | None, stat: str) -> pd.Series:
+    """Grouped statistic of ``y`` (or row counts) by the ``by`` columns, missing rows left out."""
+    cols = by + ([y] if y else [])
+    d = w[cols].dropna()
+    g = d.groupby(by, observed=True, sort=True)
+    if y is None or stat == "count":
+        return g.size()
+    if stat == "mean":
+        return g[y].mean()
+    return g[y].sum()
+
+
+def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False) -> float:
+    """Share of points drawn on top of an earlier point at the drawn marker size.
+
+    The panel's plotting area (75% of PANEL_SIZE_IN at PANEL_DPI) is cut into square cells one
+    marker wide; every point after the first in a cell counts as hidden. A simple occupancy
+    estimate (common practice), not a rendering."""
+    ok = np.isfinite(x) & np.isfinite(y)
+    if logx:
+        ok &= x > 0
+    if logy:
+        ok &= y > 0
+    x, y = x[ok], y[ok]
+    n = len(x)
+    if n < 2:
+        return 0.0
+    if logx:
+        x = np.log10(x)
+    if logy:
+        y = np.log10(y)
+    marker_px = np.sqrt(SCATTER_MARKER_AREA_PT2) * PANEL_DPI / 72.0
+    wpx = PANEL_SIZE_IN[0] * 0.75 * PANEL_DPI
+    hpx = PANEL_SIZE_IN[1] * 0.75 * PANEL_DPI
+    nx, ny = max(1, int(wpx / marker_px)), max(1, int(hpx / marker_px))
+
+    def cells(v, k):
+        lo, hi = v.min(), v.max()
+        if hi == lo:
+            return np.zeros(len(v), dtype=np.int64)
+        return np.minimum(((v - lo) / (hi - lo) * k).astype(np.int64), k - 1)
+
+    occupied = len(np.unique(cells(x, nx) * (ny + 1) + cells(y, ny)))
+    return float(1.0 - occupied / n)
+
+
+def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat: str,
+                 log_scale: bool = False) -> dict:
+    """The numbers the scorer's data-fit rules and the hazard checks read."""
+    cols = [c for c in dict.fromkeys([x, y, hue]) if c]
+    w = working_frame(df, profile, cols)
+    used = w.dropna()
+    out: dict = {"points": int(len(used)), "left_out": int(len(w) - len(used)), "rows": int(len(w))}
+    if task in ("compare", "proportion", "trend") and x:
+        vals = aggregate(w, [x], y, stat if task != "proportion" else ("sum" if y else "count"))
+        out["values"] = vals
+        if len(vals):
+            vmax, vmin = float(vals.max()), float(vals.min())
+            mag = max(abs(vmax), abs(vmin))
+            out["relative_spread"] = (vmax - vmin) / mag if mag > 0 and vmin > 0 else None
+            total = float(vals.sum())
+            if vmin >= 0 and total > 0:
+                out["min_share"] = vmin / total
+        if y and task != "trend":
+            sizes = used.groupby(x, observed=True).size()
+            out["min_group_n"] = int(sizes.min()) if len(sizes) else 0
+    if task == "trend" and x and pd.api.types.is_datetime64_any_dtype(used[x].dtype):
+        t = pd.Series(used[x].unique()).sort_values()
+        steps = t.diff().dropna()
+        if len(steps) >= 2:
+            out["time_gaps"] = int((steps > 1.5 * steps.median()).sum())
+    if task == "distribution":
+        if hue:
+            sizes = used.groupby(hue, observed=True).size()
+            out["min_group_n"] = int(sizes.min()) if len(sizes) else 0
+        else:
+            out["min_group_n"] = int(len(used))
+    if task == "correlate" and x and y and profile.fields[x].level == "quantitative" \
+            and profile.fields[y].level == "quantitative":
+        xv = used[x].to_numpy(dtype=float)
+        yv = used[y].to_numpy(dtype=float)
+        out["hidden_share"] = hidden_share(xv, yv)
+        if len(xv) > 2 and np.std(xv) > 0 and np.std(yv) > 0:
+            out["pearson"] = float(np.corrcoef(xv, yv)[0, 1])
+    if task == "compare" and x and y and profile.fields.get(y) is not None:
+        # Strip plots draw every point along the category axis.
+        xs = used[x].astype("category").cat.codes.to_numpy(dtype=float)
+        out["hidden_share"] = hidden_share(xs + np.random.default_rng(0).uniform(-.2, .2, len(xs)),
+                                           used[y].to_numpy(dtype=float))
+    return out
+
+
+def choose_bins(values: np.ndarray, log: bool = False) -> tuple[str, str]:
+    """A histogram bin rule for ``values`` and the sentence saying why.
+
+    Freedman & Diaconis (1981), h = 2·IQR·n^(-1/3), resists outliers; when the IQR is zero or
+    the rule gives an unreadable number of bins, Sturges (1926), k = ⌈log2 n⌉ + 1. Both as
+    implemented by numpy.histogram_bin_edges."""
+    v = values[np.isfinite(values)]
+    if log:
+        v = np.log10(v[v > 0])
+    where = " (on the log scale)" if log else ""
+    n = len(v)
+    if n > 1:
+        q75, q25 = np.percentile(v, [75, 25])
+        if q75 > q25:
+            k = len(np.histogram_bin_edges(v, bins="fd")) - 1
+            if 5 <= k <= 150:
+                h = 2 * (q75 - q25) * n ** (-1 / 3)
+                return "fd", (f"bins: Freedman–Diaconis{where}, width 2·IQR·n^(-1/3) = {h:.3g} "
+                              f"→ {k} bins, robust to outliers (Freedman & Diaconis 1981)")
+    k = len(np.histogram_bin_edges(v, bins="sturges")) - 1 if n else 1
+    return "sturges", (f"bins: Sturges{where}, ⌈log2 n⌉ + 1 = {k} bins (Sturges 1926), since "
+                       "Freedman–Diaconis gives too few or too many bins here")

@@ -1,0 +1,125 @@
+"""Text and HTML forms of an Advice, and the notebook mimebundle. Every user-supplied string
+passes through html.escape before it reaches HTML."""
+
+from __future__ import annotations
+
+import base64
+import html
+import io
+from typing import TYPE_CHECKING
+
+from .codegen import short
+
+if TYPE_CHECKING:  # pragma: no cover
+    from .advice import Advice
+
+SEVERITY_MARK = {"severe": "!!", "warn": "! ", "info": "i "}
+SEVERITY_COLOUR = {"severe": "#B00020", "warn": "#8A5A00", "info": "#35618F"}
+
+
+def figure_png(fig) -> bytes:
+    buf = io.BytesIO()
+    fig.savefig(buf, format="png", dpi=100)
+    return buf.getvalue()
+
+
+def advice_text(advice: Advice, limit: int | None = None) -> str:
+    lines = [f"plotwise advice — task: {advice.task or 'any'} — {advice.profile.rows} rows, "
+             f"{len(advice.profile.fields)} columns"]
+    for n in advice.notes:
+        lines.append(f"  chosen: {n}")
+    lines.append("")
+    lines.append("Ranked designs:")
+    for i, d in enumerate(advice.designs[:limit] if limit else advice.designs, 1):
+        mark = "  " if d.expressive else " x"
+        lines.append(f" {mark}{i:>2}. {d.title:<34} {d.task:<12} {d.score:.2f}  {short(d.summary(), 90)}")
+    for i, d in enumerate(advice.shown(), 1):
+        lines.append("")
+        lines.append(f"Why #{i} {d.title}:")
+        lines += [f"   - {short(r, 300)}" for r in d.reasons[1:]]
+    lines.append("")
+    if advice.hazards:
+        lines.append("Hazards:")
+        for h in advice.hazards:
+            lines.append(f" {SEVERITY_MARK[h.severity]} {h.code} ({h.severity}): {h.message}")
+            lines.append(f"      fix: {h.fix}")
+    else:
+        lines.append("Hazards: none found.")
+    return "\n".join(lines)
+
+
+def _e(text) -> str:
+    return html.escape(str(text), quote=True)
+
+
+STYLE = """
+<style>
+.pw-advice{font-family:system-ui,-apple-system,Segoe UI,sans-serif;font-size:13px;max-width:1400px}
+.pw-advice table{border-collapse:collapse;margin:6px 0}
+.pw-advice th,.pw-advice td{border-bottom:1px solid #e3e3e3;padding:3px 8px;text-align:left;vertical-align:top}
+.pw-advice th{background:#f5f5f5}
+.pw-advice .pw-x{color:#888}
+.pw-advice img{max-width:100%;height:auto}
+.pw-advice h4{margin:12px 0 4px 0}
+.pw-advice ul{margin:2px 0 6px 0}
+</style>
+"""
+
+
+def hazards_html(hazards) -> str:
+    if not hazards:
+        return "<p>No hazards found.</p>"
+    rows = "".join(
+        f"<tr><td style='color:{SEVERITY_COLOUR[h.severity]};font-weight:bold'>{_e(h.severity)}</td>"
+        f"<td><code>{_e(h.code)}</code></td><td>{_e(h.message)}</td><td>{_e(h.fix)}</td></tr>"
+        for h in hazards)
+    return ("<table><tr><th>severity</th><th>code</th><th>what could mislead</th><th>fix</th></tr>"
+            f"{rows}</table>")
+
+
+def profile_html(advice: Advice) -> str:
+    rows = "".join(
+        f"<tr><td>{_e(short(f.label, 60))}</td><td>{_e(f.level)}</td><td>{f.distinct}</td>"
+        f"<td>{f.missing}</td><td>{_e('; '.join(f.evidence))}</td></tr>"
+        for f in advice.fields.values())
+    return ("<table><tr><th>column</th><th>level</th><th>distinct</th><th>missing</th>"
+            f"<th>evidence</th></tr>{rows}</table>")
+
+
+def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: bytes | None = None) -> str:
+    parts = [STYLE, "<div class='pw-advice'>",
+             f"<h4>plotwise advice — task: {_e(advice.task or 'any')} "
+             f"({advice.profile.rows} rows, {len(advice.profile.fields)} columns)</h4>"]
+    if advice.notes:
+        parts.append("<p>Chosen: " + "; ".join(_e(n) for n in advice.notes) + "</p>")
+    if image:
+        if png is None:
+            png = figure_png(advice.show())
+        b64 = base64.b64encode(png).decode("ascii")
+        parts.append(f"<img alt='top designs side by side' src='data:image/png;base64,{b64}'/>")
+    parts.append("<h4>Hazards</h4>" + hazards_html(advice.hazards))
+    parts.append("<h4>Why the top designs rank where they do</h4>")
+    for i, d in enumerate(advice.shown(), 1):
+        items = "".join(f"<li>{_e(r)}</li>" for r in d.reasons[1:])
+        parts.append(f"<p><b>{i}. {_e(d.title)}</b> — {_e(d.summary())}</p><ul>{items}</ul>")
+    rows = "".join(
+        f"<tr class='{'' if d.expressive else 'pw-x'}'><td>{i}</td><td>{_e(d.title)}</td>"
+        f"<td>{_e(d.task)}</td><td>{d.score:.2f}</td><td>{_e(d.summary())}</td></tr>"
+        for i, d in enumerate(advice.designs, 1))
+    parts.append("<h4>All candidate designs</h4><table><tr><th>rank</th><th>kind</th><th>task</th>"
+                 f"<th>score</th><th>reason</th></tr>{rows}</table>")
+    if profile:
+        parts.append("<h4>Columns</h4>" + profile_html(advice))
+    parts.append("<p style='color:#777;font-size:11px'>plotwise's advice is heuristic; charts "
+                 "behind medical, safety or financial decisions deserve review by someone "
+                 "accountable for them.</p></div>")
+    return "".join(parts)
+
+
+def advice_bundle(advice: Advice) -> dict:
+    png = figure_png(advice.show())
+    return {
+        "text/plain": advice_text(advice, limit=10),
+        "text/html": advice_html(advice, png=png),
+        "image/png": base64.b64encode(png).decode("ascii"),
+    }

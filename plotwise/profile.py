@@ -1,0 +1,340 @@
+"""Field profiling: each column's measurement level, the evidence for it, and the statistics the
+scorer and the hazard checks need. Reads the caller's frame column by column; never copies or
+changes it."""
+
+from __future__ import annotations
+
+import warnings
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from .errors import PlotwiseError
+from .rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
+
+# Rows looked at when guessing whether strings are dates (a seeded sample, so profiles repeat).
+DATE_SNIFF_ROWS = 200
+
+
+@dataclass
+class FieldProfile:
+    """One column as the engine sees it."""
+
+    name: object
+    label: str
+    level: str  # nominal | ordinal | quantitative | temporal
+    dtype: str
+    rows: int
+    missing: int
+    distinct: int
+    evidence: list[str] = field(default_factory=list)
+    minimum: float | None = None
+    maximum: float | None = None
+    mean: float | None = None
+    std: float | None = None
+    skew: float | None = None
+    infinite: int = 0
+    is_integer: bool = False
+    is_discrete: bool = False
+    zero_meaningful: bool | None = None
+    signed: bool = False
+    share_like: bool = False
+    parse_dates: bool = False
+    is_timedelta: bool = False
+    order: tuple | None = None  # category order for ordinal data, when known
+    top_labels: tuple = ()
+    time_regular: bool | None = None
+    time_step: str | None = None
+    time_gaps: int = 0
+    position: int = 0  # column position in the frame
+
+    @property
+    def usable(self) -> int:
+        """Rows with a usable value."""
+        return self.rows - self.missing - self.infinite
+
+    def summary(self) -> str:
+        return f"{self.label}: {self.level} ({'; '.join(self.evidence)})"
+
+
+@dataclass
+class Profile:
+    """The whole frame: row count and one FieldProfile per column, in column order."""
+
+    rows: int
+    fields: dict[str, FieldProfile]
+
+    def __getitem__(self, label: str) -> FieldProfile:
+        return self.fields[label]
+
+    def of_level(self, *levels: str) -> list[FieldProfile]:
+        return [f for f in self.fields.values() if f.level in levels]
+
+
+def check_frame(df) -> None:
+    """Raise PlotwiseError for frames the engine cannot read."""
+    if not isinstance(df, pd.DataFrame):
+        raise PlotwiseError(
+            f"plotwise needs a pandas DataFrame, got {type(df).__name__}; "
+            "wrap your data with pandas.DataFrame(...) first."
+        )
+    if isinstance(df.columns, pd.MultiIndex):
+        raise PlotwiseError(
+            "the frame has MultiIndex (hierarchical) column names, which plotwise does not "
+            "support; flatten them first, e.g. df.columns = ['_'.join(map(str, c)) for c in df.columns]."
+        )
+    labels = [str(c) for c in df.columns]
+    seen: set[str] = set()
+    dupes = sorted({lab for lab in labels if lab in seen or seen.add(lab)})
+    if dupes:
+        raise PlotwiseError(
+            f"the frame has duplicate column names {dupes[:5]}; rename them so each is unique, "
+            "e.g. df.columns = [f'{c}_{i}' for i, c in enumerate(df.columns)]."
+        )
+    if df.shape[0] == 0:
+        raise PlotwiseError("the frame has no rows; advise on a frame with data in it.")
+    if df.shape[1] == 0:
+        raise PlotwiseError("the frame has no columns; advise on a frame with data in it.")
+
+
+def profile_frame(df: pd.DataFrame) -> Profile:
+    """Profile every column of ``df``."""
+    check_frame(df)
+    fields = {}
+    for position, name in enumerate(df.columns):
+        fp = profile_series(df.iloc[:, position], name)
+        fp.position = position
+        fields[str(name)] = fp
+    return Profile(rows=int(df.shape[0]), fields=fields)
+
+
+def _safe_nunique(s: pd.Series) -> int:
+    try:
+        return int(s.nunique(dropna=True))
+    except TypeError:  # unhashable values (lists, dicts) in an object column
+        return int(s.dropna().astype(str).nunique())
+
+
+def _top_labels(s: pd.Series, k: int = 12) -> tuple:
+    try:
+        counts = s.value_counts(dropna=True)
+    except TypeError:
+        counts = s.dropna().astype(str).value_counts()
+    return tuple(str(v) for v in counts.index[:k])
+
+
+def _has_hint(label: str, hints) -> bool:
+    low = label.lower()
+    tokens = [t for t in "".join(ch if ch.isalnum() else " " for ch in low).split() if t]
+    for hint in hints:
+        if not hint.isalnum():
+            if hint in low:
+                return True
+        elif hint in tokens or (len(hint) > 3 and hint in low):
+            return True
+    return False
+
+
+def profile_series(s: pd.Series, name) -> FieldProfile:
+    label = str(name)
+    rows = int(len(s))
+    missing = int(s.isna().sum())
+    dtype = s.dtype
+    fp = FieldProfile(name=name, label=label, level="nominal", dtype=str(dtype), rows=rows,
+                      missing=missing, distinct=_safe_nunique(s))
+    ev = fp.evidence
+    ev.append(f"dtype {dtype}")
+    if missing:
+        ev.append(f"{missing} of {rows} missing")
+
+    if isinstance(dtype, pd.CategoricalDtype):
+        if dtype.ordered:
+            fp.level = "ordinal"
+            fp.order = tuple(dtype.categories)
+            ev.append("ordered Categorical")
+        else:
+            fp.level = "nominal"
+            ev.append("unordered Categorical")
+        fp.top_labels = _top_labels(s)
+        ev.append(f"{fp.distinct} distinct values")
+        return fp
+
+    if pd.api.types.is_bool_dtype(dtype):
+        fp.level = "nominal"
+        fp.top_labels = _top_labels(s)
+        ev.append("true/false values")
+        return fp
+
+    if pd.api.types.is_datetime64_any_dtype(dtype) or isinstance(dtype, pd.PeriodDtype):
+        fp.level = "temporal"
+        ev.append("date/time values")
+        _time_spacing(fp, s)
+        return fp
+
+    if pd.api.types.is_timedelta64_dtype(dtype):
+        fp.is_timedelta = True
+        values = s.dropna().dt.total_seconds().to_numpy(dtype=float)
+        ev.append("durations (drawn in seconds)")
+        _quantitative(fp, values)
+        return fp
+
+    if pd.api.types.is_numeric_dtype(dtype):
+        values = _numeric_values(s)
+        _quantitative(fp, values)
+        return fp
+
+    # Strings and mixed objects.
+    fp.top_labels = _top_labels(s)
+    if _looks_like_dates(s):
+        fp.level = "temporal"
+        fp.parse_dates = True
+        ev.append("text that parses as dates")
+        _time_spacing(fp, pd.to_datetime(s, errors="coerce", format="ISO8601"))
+        return fp
+    fp.level = "nominal"
+    ev.append(f"{fp.distinct} distinct labels")
+    if fp.distinct > THRESHOLDS["max_categories"]:
+        ev.append(
+            f"more than {THRESHOLDS['max_categories']} labels: identifier-like, not used as a category"
+        )
+    return fp
+
+
+def _numeric_values(s: pd.Series) -> np.ndarray:
+    """Finite and infinite float values of a numeric column (nullable types included), no NaN."""
+    v = s.dropna()
+    try:
+        arr = v.to_numpy(dtype=float, na_value=np.nan)
+    except (TypeError, ValueError):
+        arr = pd.to_numeric(v, errors="coerce").to_numpy(dtype=float, na_value=np.nan)
+    return arr[~np.isnan(arr)]
+
+
+def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
+    ev = fp.evidence
+    finite = values[np.isfinite(values)]
+    fp.infinite = int(len(values) - len(finite))
+    if fp.infinite:
+        ev.append(f"{fp.infinite} infinite values left out")
+    fp.level = "quantitative"
+    if len(finite) == 0:
+        ev.append("no finite values")
+        return
+    fp.minimum = float(finite.min())
+    fp.maximum = float(finite.max())
+    fp.mean = float(finite.mean())
+    fp.std = float(finite.std(ddof=1)) if len(finite) > 1 else 0.0
+    if len(finite) > 2 and fp.std > 0:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            fp.skew = float(pd.Series(finite).skew())
+    fp.is_integer = bool(np.all(np.mod(finite, 1) == 0))
+    levels = THRESHOLDS["discrete_levels"]
+    fp.is_discrete = fp.is_integer and fp.distinct <= levels
+    label = fp.label
+    # Integer years stored as numbers.
+    if fp.is_integer and _has_hint(label, YEAR_NAME_HINTS) and 1000 <= fp.minimum and fp.maximum <= 2999:
+        fp.level = "temporal"
+        ev.append(f"integer years {int(fp.minimum)}..{int(fp.maximum)} (name says year)")
+        _time_spacing(fp, pd.Series(np.unique(finite)))
+        return
+    # Small integer codes 0..k / 1..k: a rating or rank, read as ordinal.
+    k = THRESHOLDS["ordinal_code_levels"]
+    uniq = np.unique(finite)
+    if (fp.is_integer and 3 <= len(uniq) <= k and uniq[0] in (0, 1)
+            and np.array_equal(uniq, np.arange(uniq[0], uniq[0] + len(uniq)))
+            and fp.rows >= 3 * len(uniq)):
+        fp.level = "ordinal"
+        fp.order = tuple(int(u) for u in uniq)
+        ev.append(f"integer codes {int(uniq[0])}..{int(uniq[-1])} with many ties (a rating or rank)")
+        return
+    ev.append(f"{fp.distinct} distinct numbers from {fp.minimum:.4g} to {fp.maximum:.4g}")
+    if fp.is_discrete:
+        ev.append(f"integers with only {fp.distinct} levels (discrete)")
+    if _has_hint(label, INTERVAL_NAME_HINTS):
+        fp.zero_meaningful = False
+        fp.signed = fp.minimum < 0 < fp.maximum
+        ev.append("name suggests an interval scale: zero is arbitrary")
+    elif fp.minimum >= 0:
+        fp.zero_meaningful = True
+        ev.append("all values ≥ 0: an amount or count, zero is meaningful")
+    else:
+        fp.zero_meaningful = True
+        fp.signed = fp.maximum > 0
+        ev.append("signed values: zero is the natural midpoint")
+    fp.share_like = fp.minimum >= 0 and _has_hint(label, SHARE_NAME_HINTS)
+    if fp.skew is not None and abs(fp.skew) >= 1:
+        ev.append(f"skewness {fp.skew:.2f}")
+
+
+def _looks_like_dates(s: pd.Series) -> bool:
+    sample = s.dropna()
+    if len(sample) == 0:
+        return False
+    if len(sample) > DATE_SNIFF_ROWS:
+        sample = sample.sample(DATE_SNIFF_ROWS, random_state=0)
+    if not all(isinstance(v, str) for v in sample):
+        return False
+    if not all(any(ch.isdigit() for ch in v) and any(sep in v for sep in "-/:") for v in sample):
+        return False
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        parsed = pd.to_datetime(sample, errors="coerce", format="ISO8601")
+    return bool(parsed.notna().mean() >= 0.95)
+
+
+def _time_spacing(fp: FieldProfile, s: pd.Series) -> None:
+    """Is the spacing between distinct time points regular? Records step and gaps."""
+    ev = fp.evidence
+    values = s.dropna()
+    if isinstance(values.dtype, pd.PeriodDtype):
+        values = values.dt.to_timestamp()
+    if pd.api.types.is_numeric_dtype(values.dtype):  # integer years
+        uniq = np.unique(values.to_numpy(dtype=float))
+        fp.distinct = len(uniq)
+        if len(uniq) < 3:
+            fp.time_regular = len(uniq) == 2 or None
+            return
+        steps = np.diff(uniq)
+        unit = "years"
+    else:
+        try:
+            uniq = pd.DatetimeIndex(pd.unique(values)).sort_values()
+        except (TypeError, ValueError):
+            return
+        fp.distinct = len(uniq)
+        if len(uniq):
+            fp.minimum = None
+            fp.maximum = None
+        if len(uniq) < 3:
+            fp.time_regular = len(uniq) == 2 or None
+            return
+        try:
+            freq = pd.infer_freq(uniq)
+        except (TypeError, ValueError):
+            freq = None
+        if freq:
+            fp.time_regular = True
+            fp.time_step = freq
+            ev.append(f"{len(uniq)} time points, regular step {freq}")
+            return
+        steps = uniq.to_series().diff().dropna().dt.total_seconds().to_numpy() / 86400.0  # days
+        unit = "days"
+    step = float(np.median(steps))
+    if step <= 0:
+        return
+    tol = THRESHOLDS["uneven_tolerance"]
+    # Calendar months and years vary in length by a few percent; allow for that.
+    slack = 0.1 if unit == "days" and step >= 27 else tol
+    off = np.abs(steps - step) > slack * step
+    fp.time_gaps = int(np.sum(steps > (1 + max(slack, 0.5)) * step))
+    fp.time_regular = not bool(off.any())
+    fp.time_step = f"{step:g} {unit}"
+    if fp.time_regular:
+        ev.append(f"{len(uniq)} time points, regular step {fp.time_step}")
+    else:
+        ev.append(
+            f"{len(uniq)} time points, uneven spacing (usual step {fp.time_step}, "
+            f"{int(off.sum())} steps differ, {fp.time_gaps} gaps)"
+        )

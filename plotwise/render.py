@@ -1,0 +1,81 @@
+"""Drawing: runs each design's generated code (plotwise.codegen) on a matplotlib Figure made
+inside style context managers, so the user's global matplotlib/seaborn settings never change and
+no pyplot figure is left open."""
+
+from __future__ import annotations
+
+import warnings
+from contextlib import contextmanager
+
+import matplotlib as mpl
+import numpy as np
+import pandas as pd
+import seaborn as sns
+from matplotlib.axes import Axes
+from matplotlib.figure import Figure
+
+from .codegen import body_lines, short
+from .designs import Design
+from .errors import PlotwiseError
+from .profile import Profile
+
+PANEL_WIDTH_IN = 4.6
+PANEL_HEIGHT_IN = 4.2
+
+
+@contextmanager
+def plot_style():
+    """plotwise's look, applied only inside the block."""
+    with mpl.rc_context(), sns.axes_style("ticks"), sns.plotting_context("notebook", font_scale=0.75):
+        mpl.rcParams["figure.dpi"] = 100
+        mpl.rcParams["savefig.dpi"] = 100
+        with warnings.catch_warnings():
+            # seaborn 0.13.2 with matplotlib 3.11 / pandas 3: deprecation chatter, not user news.
+            warnings.filterwarnings("ignore", category=FutureWarning)
+            warnings.filterwarnings("ignore", category=DeprecationWarning)
+            warnings.filterwarnings("ignore", category=PendingDeprecationWarning)
+            warnings.filterwarnings("ignore", message=".*vert.*")
+            yield
+
+
+def draw(design: Design, df: pd.DataFrame, ax: Axes, profile: Profile | None = None) -> Axes:
+    """Draw one design on the caller's Axes (small multiples subdivide its area)."""
+    profile = profile or design.profile
+    if profile is None:
+        raise PlotwiseError("this design was not made by plotwise.advise(); call advise() first.")
+    code = "\n".join(body_lines(design, profile, "df"))
+    namespace = {"pd": pd, "np": np, "sns": sns, "ax": ax, "df": df}
+    try:
+        with plot_style():
+            exec(compile(code, f"<plotwise {design.kind}>", "exec"), namespace)  # noqa: S102
+    except PlotwiseError:
+        raise
+    except Exception as exc:  # the drawing libraries' errors become one readable message
+        raise PlotwiseError(
+            f"could not draw the {design.title} design of {', '.join(map(repr, design.columns))}: "
+            f"{type(exc).__name__}: {short(str(exc), 200)}. Try another design from "
+            "advice.designs, or check the columns' values."
+        ) from exc
+    return ax
+
+
+def panel_title(rank: int, design: Design) -> str:
+    return f"{rank} · {short(design.title, 48)} · score {design.score:.2f}"
+
+
+def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = None,
+             notes: list[str] | None = None) -> Figure:
+    """A Figure with the given designs side by side, each titled with rank, kind and score."""
+    if not designs:
+        raise PlotwiseError("there are no designs to draw.")
+    ranks = ranks or list(range(1, len(designs) + 1))
+    with plot_style():
+        fig = Figure(figsize=(PANEL_WIDTH_IN * len(designs), PANEL_HEIGHT_IN), layout="constrained")
+        subs = np.atleast_1d(fig.subfigures(1, len(designs), wspace=0.02))
+        for i, (sub, design) in enumerate(zip(subs, designs)):
+            ax = sub.subplots()
+            draw(design, df, ax)
+            sub.suptitle(panel_title(ranks[i], design), fontsize=10, fontweight="bold")
+            if notes and i < len(notes) and notes[i]:
+                sub.supxlabel(notes[i], fontsize=7, color="#555555")
+    return fig

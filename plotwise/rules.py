@@ -1,0 +1,178 @@
+"""Rankings, weights and thresholds as data tables.
+
+Every table names its source beside it. "common practice" marks a rule of thumb with no single
+published source; "from memory" marks a value recalled without the source at hand. The engine
+(profile, designs, scoring, hazards) reads its numbers from here and nowhere else, so changing a
+weight or threshold is a one-line edit with its citation next to it.
+"""
+
+from __future__ import annotations
+
+# --------------------------------------------------------------------------------------------
+# Measurement levels and tasks
+# --------------------------------------------------------------------------------------------
+LEVELS = ("nominal", "ordinal", "quantitative", "temporal")
+TASKS = ("compare", "trend", "proportion", "correlate", "distribution")
+
+# --------------------------------------------------------------------------------------------
+# Perceptual channel rankings
+# --------------------------------------------------------------------------------------------
+# Mackinlay, J. (1986). Automating the design of graphical presentations of relational
+# information. ACM Transactions on Graphics 5(2). Most to least accurate, by level.
+# (Table as reproduced "after Mackinlay 1986"; the label "density" for grey level is from memory.)
+MACKINLAY_1986 = {
+    "quantitative": (
+        "position", "length", "angle", "slope", "area", "volume", "density",
+        "colour saturation", "colour hue", "texture", "connection", "containment", "shape",
+    ),
+    "ordinal": (
+        "position", "density", "colour saturation", "colour hue", "texture", "connection",
+        "containment", "length", "angle", "slope", "area", "volume", "shape",
+    ),
+    "nominal": (
+        "position", "colour hue", "texture", "connection", "containment", "density",
+        "colour saturation", "shape", "length", "angle", "slope", "area", "volume",
+    ),
+}
+
+# Cleveland, W. S. & McGill, R. (1984). Graphical perception. JASA 79(387).
+# Elementary perceptual tasks, most to least accurate; ties within a level.
+CLEVELAND_MCGILL_1984 = (
+    ("position along a common scale",),
+    ("position along non-aligned scales",),
+    ("length", "direction", "angle"),
+    ("area",),
+    ("volume", "curvature"),
+    ("shading", "colour saturation"),
+)
+
+# The encoding channels a Design may use, mapped to the perceptual channel of the rankings above.
+# Temporal data is ranked as ordinal data (it is ordered; its intervals are handled by data fit).
+# "facet" (one panel per category) separates categories into regions: containment in Mackinlay's
+# vocabulary (common practice to read it that way).
+CHANNEL_TO_PERCEPTUAL = {
+    "x position": "position",
+    "y position": "position",
+    "length": "length",
+    "angle": "angle",
+    "area": "area",
+    "hue": "colour hue",
+    "lightness": "density",
+    "connection": "connection",
+    "facet": "containment",
+}
+
+# How much each role weighs in a design's effectiveness: the measure the question is about counts
+# most (common practice).
+ROLE_WEIGHTS = {"measure": 0.6, "category": 0.25, "hue": 0.15, "facet": 0.15}
+
+# Weights of the three parts of a design's score (common practice; tuned on the demo data and the
+# open datasets in the tests, documented in DEVELOPERS.md).
+SCORE_WEIGHTS = {"effectiveness": 0.5, "task_fit": 0.3, "data_fit": 0.2}
+
+# A design that fails Mackinlay's expressiveness criterion is kept, last, with its score scaled by
+# this factor so it can never outrank an expressive design (common practice).
+INEXPRESSIVE_FACTOR = 0.25
+
+# How well each kind answers each task, 0..1 (common practice). Missing pairs mean "does not serve".
+TASK_FIT = {
+    "compare": {
+        "bar": 1.0, "dot": 0.92, "grouped-bar": 0.95, "stacked-bar": 0.6, "heatmap": 0.7,
+        "box": 0.8, "violin": 0.7, "strip": 0.75, "pie": 0.3, "line": 0.5,
+        "slope": 0.95, "difference-bar": 0.95,
+    },
+    "trend": {
+        "line": 1.0, "area": 0.75, "bar": 0.7, "dot": 0.6, "slope": 0.95, "difference-bar": 0.9,
+        "heatmap": 0.65, "stacked-bar": 0.55,
+    },
+    "proportion": {
+        "bar": 0.95, "stacked-bar-100": 0.9, "pie": 0.75, "dot": 0.8, "stacked-bar": 0.7,
+        "heatmap": 0.6, "grouped-bar": 0.75,
+    },
+    "correlate": {
+        "scatter": 1.0, "regression": 0.95, "hexbin": 0.85, "heatmap": 0.8,
+    },
+    "distribution": {
+        "histogram": 1.0, "density": 0.85, "ecdf": 0.8, "box": 0.75, "violin": 0.78,
+        "strip": 0.72, "count-bar": 1.0,
+    },
+}
+
+# --------------------------------------------------------------------------------------------
+# Thresholds used by data fit and hazards
+# --------------------------------------------------------------------------------------------
+THRESHOLDS = {
+    # Miller (1956) "7 ± 2"; common practice: up to 7 hues comfortably, never more than about 10.
+    "hues_warn": 7,
+    "hues_severe": 10,
+    # Pie: more than 5 parts, or a part under about 3% (common practice).
+    "pie_max_parts": 5,
+    "pie_min_share": 0.03,
+    # Percent shares of one whole add to 100, allowing ±0.5 per part for rounding (common practice).
+    "share_rounding_per_part": 0.5,
+    # A density or violin on fewer points than this is mostly the kernel's shape (common practice).
+    "few_points": 20,
+    # Sample skewness above this on positive data suggests a log axis (common practice).
+    "skew_log": 2.0,
+    # Share of points hidden under others at the drawn marker size: warn / severe (common practice).
+    "overplot_warn": 0.25,
+    "overplot_severe": 0.6,
+    # Standardised difference between group means below which their distributions overlap
+    # heavily (Cohen's d < 0.5, a "medium" effect; Cohen 1988, from memory).
+    "hidden_spread_d": 0.5,
+    # Share of rows left out for missing values above which the note becomes a warning
+    # (common practice).
+    "missing_warn": 0.05,
+    # Time steps whose spacing varies by more than this fraction of the usual step are uneven
+    # (common practice).
+    "uneven_tolerance": 0.05,
+    # Integer columns with at most this many distinct values are discrete (common practice).
+    "discrete_levels": 15,
+    # Integer codes 0..k or 1..k with k at most this are read as ordinal codes (common practice).
+    "ordinal_code_levels": 7,
+    # Strings with at most this many distinct values are categories (common practice).
+    "max_categories": 60,
+    # Category labels longer than this turn bars horizontal (common practice).
+    "long_label": 6,
+    # Categories beyond this make a bar chart crowded (common practice).
+    "max_bars": 30,
+    # Scatter of more points than this switches the advice to hexbin (common practice).
+    "scatter_max_points": 5000,
+    # Small multiples: at most this many panels (common practice).
+    "max_facets": 12,
+    # Values whose spread is under this fraction of their magnitude are bunched far from zero:
+    # bars from zero would hide the differences, a dot plot shows them (common practice).
+    "bunched_spread": 0.1,
+}
+
+# Marker drawn by scatter designs: seaborn's default marker area, in points² (from memory: 36 in
+# seaborn 0.13 via rcParams lines.markersize 6 → 6² = 36).
+SCATTER_MARKER_AREA_PT2 = 36.0
+# The panel the advice draws into, in inches (our own layout).
+PANEL_SIZE_IN = (4.4, 3.6)
+PANEL_DPI = 100
+
+# --------------------------------------------------------------------------------------------
+# Colour
+# --------------------------------------------------------------------------------------------
+# Okabe, M. & Ito, K. (2008). Color Universal Design. Reordered so the first hues are the most
+# distinct on white; black is kept last.
+OKABE_ITO = ("#0072B2", "#E69F00", "#009E73", "#D55E00", "#CC79A7", "#56B4E9", "#F0E442", "#000000")
+# Perceptually uniform colormaps (Smith & van der Walt 2015 for viridis; matplotlib's own docs for
+# cividis and the diverging "vlag" of seaborn, whose ends are equally light - from memory).
+SEQUENTIAL_CMAP = "viridis"
+DIVERGING_CMAP = "vlag"
+# A single-series colour and the grey for context.
+MAIN_COLOUR = OKABE_ITO[0]
+CONTEXT_GREY = "#9A9A9A"
+
+# Stevens, S. S. (1957/1975): perceived = k · stimulus^a.
+STEVENS_EXPONENTS = {"length": 1.0, "area": 0.7, "volume": 0.6, "brightness": 0.33}
+
+# Name fragments that mark an interval-scale quantity whose zero is arbitrary (common practice).
+INTERVAL_NAME_HINTS = ("temp", "celsius", "fahrenheit", "latitude", "longitude", "lat", "lon",
+                       "elevation", "zscore", "z_score")
+# Name fragments that mark a column of percentages or shares (common practice).
+SHARE_NAME_HINTS = ("pct", "percent", "share", "%", "proportion", "fraction")
+# Name fragments that mark a year stored as an integer (common practice).
+YEAR_NAME_HINTS = ("year", "yr")

@@ -1,0 +1,40 @@
+import matplotlib
+
+matplotlib.use("Agg")  # set in the test process only (kernels under test keep their own backend)
+
+import matplotlib.pyplot as plt  # noqa: E402
+import numpy as np  # noqa: E402
+import pandas as pd  # noqa: E402
+import pytest  # noqa: E402
+
+
+@pytest.fixture(autouse=True)
+def no_open_figures():
+    """Every test must leave no pyplot figure open."""
+    before = set(plt.get_fignums())
+    yield
+    leaked = set(plt.get_fignums()) - before
+    plt.close("all")
+    assert not leaked, f"figures left open: {leaked}"
+
+
+@pytest.fixture
+def rng():
+    return np.random.default_rng(12345)
+
+
+def grunfeld() -> pd.DataFrame:
+    """Grunfeld (1958) investment data for 11 US firms, 1935-1954, shipped with statsmodels."""
+    import statsmodels.api as sm
+
+    return sm.datasets.grunfeld.load_pandas().data
+
+
+def iris() -> pd.DataFrame:
+    """Fisher's iris measurements, shipped with scikit-learn, with species names as text."""
+    from sklearn.datasets import load_iris
+
+    b = load_iris(as_frame=True)
+    f = b.frame.drop(columns="target")
+    f["species"] = b.target_names[b.target]
+    return f
