@@ -43,10 +43,12 @@ def column_expr(f: FieldProfile, frame: str) -> str:
     return ref
 
 
-def palette_expr(n_hint: int) -> str:
+def palette_expr(n_hint: int, count: str | None = None) -> str:
+    """Okabe & Ito (2008) colours, cut to the number of levels drawn (``count``, an expression)
+    so seaborn gets exactly as many as it needs; husl for more levels than the palette has."""
     if n_hint <= len(OKABE_ITO):
-        return repr(list(OKABE_ITO))
-    return f'sns.color_palette("husl", {n_hint})'
+        return repr(list(OKABE_ITO)) + (f"[:{count}]" if count else "")
+    return f'sns.color_palette("husl", {count or n_hint})'
 
 
 class Ctx:
@@ -164,7 +166,7 @@ def _dot(c: Ctx) -> list[str]:
                  if c.nominal(d.x) else f"order = v[{d.x!r}].unique()",
                  f"hues = sorted(v[{d.hue!r}].unique())",
                  f"sns.stripplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=list(order), "
-                 f"hue_order=hues, palette={palette_expr(c.f(d.hue).distinct)}, jitter=False, "
+                 f"hue_order=hues, palette={palette_expr(c.f(d.hue).distinct, 'len(hues)')}, jitter=False, "
                  f"size=7, ax={c.ax})"]
     else:
         lines = _ordered_series(c, d.x)
@@ -191,7 +193,7 @@ def _time_dots(c: Ctx) -> list[str]:
     if d.hue:
         lines.append(f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)")
         hue = (f", hue={d.hue!r}, hue_order=sorted(v[{d.hue!r}].unique()), "
-               f"palette={palette_expr(c.f(d.hue).distinct)}")
+               f"palette={palette_expr(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}")
     size = "s=12" if (f is not None and f.distinct > 60) else "s=30"
     lines.append(f"sns.scatterplot(data=v, x={d.x!r}, y={vn!r}{hue}, {size}, linewidth=0, "
                  f"color={MAIN_COLOUR!r}, ax={c.ax})")
@@ -215,7 +217,7 @@ def _grouped_bar(c: Ctx) -> list[str]:
     else:
         lines.append(f"order = list(dict.fromkeys(v[{d.x!r}]))")
     lines.append(f"hues = list(dict.fromkeys(v[{d.hue!r}]))")
-    pal = palette_expr(c.f(d.hue).distinct)
+    pal = palette_expr(c.f(d.hue).distinct, "len(hues)")
     if d.horizontal:
         lines.append(f'sns.barplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=order, '
                      f'hue_order=hues, palette={pal}, orient="h", errorbar=None, ax={c.ax})')
@@ -288,7 +290,7 @@ def _line(c: Ctx, area: bool = False) -> list[str]:
                 f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)",
                 f"hues = sorted(v[{d.hue!r}].unique())",
                 f"sns.lineplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, hue_order=hues, "
-                f"palette={palette_expr(c.f(d.hue).distinct)}, errorbar=None, ax={c.ax})",
+                f"palette={palette_expr(c.f(d.hue).distinct, 'len(hues)')}, errorbar=None, ax={c.ax})",
                 f'{c.ax}.legend(title={short(d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)',
                 ] + _labels(c, d.x, c.measure_label()) + _style(c, "y")
     lines = [f"v = {c.grouped([d.x])}"]
@@ -374,7 +376,7 @@ def _scatter(c: Ctx) -> list[str]:
     hue = ""
     if d.hue:
         hue = (f", hue={c.data}[{d.hue!r}].astype(str), hue_order=sorted({c.data}[{d.hue!r}].astype(str).unique()), "
-               f"palette={palette_expr(c.f(d.hue).distinct)}")
+               f"palette={palette_expr(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
     lines = [f"alpha = 1.0 if len({c.data}) <= 300 else max(0.15, (300 / len({c.data})) ** 0.5)",
              f"sns.scatterplot(x={c.data}[{d.x!r}], y={c.data}[{d.y!r}]{hue}, s=36, alpha=alpha, "
              f"color={MAIN_COLOUR!r}, linewidth=0, ax={c.ax})"]
@@ -422,7 +424,7 @@ def _hue_args(c: Ctx) -> str:
     if not d.hue:
         return f", color={MAIN_COLOUR!r}"
     return (f", hue={d.hue!r}, hue_order=sorted({c.data}[{d.hue!r}].unique(), key=str), "
-            f"palette={palette_expr(c.f(d.hue).distinct)}")
+            f"palette={palette_expr(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
 
 
 def _log_arg(c: Ctx) -> str:
@@ -506,7 +508,7 @@ def _count_bar(c: Ctx) -> list[str]:
                 else f"order = list({c.data}[{d.x!r}].value_counts().index)",
                 f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
                 f"sns.barplot(data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, order=[str(o) for o in order], "
-                f"hue_order=sorted(v[{d.hue!r}].unique()), palette={palette_expr(c.f(d.hue).distinct)}, "
+                f"hue_order=sorted(v[{d.hue!r}].unique()), palette={palette_expr(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
                 f"errorbar=None, ax={c.ax})",
                 ] + _labels(c, d.x, "number of rows") + _style(c, "y")
     if f.level == "nominal":

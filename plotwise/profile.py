@@ -239,10 +239,11 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
         ev.append(f"integer years {int(fp.minimum)}..{int(fp.maximum)} (name says year)")
         _time_spacing(fp, pd.Series(np.unique(finite)))
         return
-    # Small integer codes 0..k / 1..k: a rating or rank, read as ordinal.
+    # Small integer codes 1..k: a rating or rank, read as ordinal. (Codes from 0 are more often
+    # counts - children, defects - and stay quantitative.)
     k = THRESHOLDS["ordinal_code_levels"]
     uniq = np.unique(finite)
-    if (fp.is_integer and 3 <= len(uniq) <= k and uniq[0] in (0, 1)
+    if (fp.is_integer and 3 <= len(uniq) <= k and uniq[0] == 1
             and np.array_equal(uniq, np.arange(uniq[0], uniq[0] + len(uniq)))
             and fp.rows >= 3 * len(uniq)):
         fp.level = "ordinal"
@@ -311,7 +312,10 @@ def _time_spacing(fp: FieldProfile, s: pd.Series) -> None:
             fp.time_regular = len(uniq) == 2 or None
             return
         try:
-            freq = pd.infer_freq(uniq)
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                freq = pd.infer_freq(uniq)
+            freq = getattr(freq, "freqstr", freq)
         except (TypeError, ValueError):
             freq = None
         if freq:

@@ -128,7 +128,7 @@ THRESHOLDS = {
     "uneven_tolerance": 0.05,
     # Integer columns with at most this many distinct values are discrete (common practice).
     "discrete_levels": 15,
-    # Integer codes 0..k or 1..k with k at most this are read as ordinal codes (common practice).
+    # Integer codes 1..k with k at most this are read as ordinal codes (common practice).
     "ordinal_code_levels": 7,
     # Strings with at most this many distinct values are categories (common practice).
     "max_categories": 60,

@@ -188,7 +188,7 @@ def data_fit(design: Design, profile: Profile, stats: dict) -> tuple[float, list
     if kind in ("scatter", "regression", "strip"):
         hidden = stats.get("hidden_share")
         if hidden is not None and hidden > T["overplot_warn"]:
-            penalise(0.5 if hidden > T["overplot_severe"] else 0.75,
+            penalise(0.3 if hidden > T["overplot_severe"] else 0.75,
                      f"about {hidden:.0%} of the {n_points} points would hide behind others")
     if kind == "hexbin":
         if n_points < 500:

@@ -21,20 +21,3 @@ def no_open_figures():
 @pytest.fixture
 def rng():
     return np.random.default_rng(12345)
-
-
-def grunfeld() -> pd.DataFrame:
-    """Grunfeld (1958) investment data for 11 US firms, 1935-1954, shipped with statsmodels."""
-    import statsmodels.api as sm
-
-    return sm.datasets.grunfeld.load_pandas().data
-
-
-def iris() -> pd.DataFrame:
-    """Fisher's iris measurements, shipped with scikit-learn, with species names as text."""
-    from sklearn.datasets import load_iris
-
-    b = load_iris(as_frame=True)
-    f = b.frame.drop(columns="target")
-    f["species"] = b.target_names[b.target]
-    return f
