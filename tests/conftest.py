@@ -4,7 +4,6 @@ matplotlib.use("Agg")  # set in the test process only (kernels under test keep t
 
 import matplotlib.pyplot as plt  # noqa: E402
 import numpy as np  # noqa: E402
-import pandas as pd  # noqa: E402
 import pytest  # noqa: E402
 
 

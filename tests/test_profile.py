@@ -3,10 +3,9 @@
 import numpy as np
 import pandas as pd
 import pytest
+from open_data import iris
 
 from plotwise import PlotwiseError, profile_frame
-
-from open_data import iris
 
 
 def levels(df):
