@@ -19,7 +19,7 @@ test: $(STAMP)
 	$(BIN)/python -m pytest -q
 
 lint: $(STAMP)
-	$(BIN)/ruff check plotwise tests benchmarks
+	$(BIN)/ruff check plotwise tests
 
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py
