@@ -35,7 +35,9 @@ def column_expr(f: FieldProfile, frame: str) -> str:
         return f'pd.to_datetime({ref}, format="ISO8601", errors="coerce")'
     if f.is_timedelta:
         return f"{ref}.dt.total_seconds()"
-    if f.level == "quantitative" or (f.level == "temporal" and f.is_integer):
+    if f.level == "temporal" and f.is_integer:
+        return f'{ref}.round().astype("Int64")'  # integer years: label 1950, not 1950.0
+    if f.level == "quantitative":
         expr = f'{ref}.astype("float64")'
         if f.infinite:
             expr += ".replace([np.inf, -np.inf], np.nan)"
@@ -112,10 +114,11 @@ def _style(c: Ctx, value_axis: str | None) -> list[str]:
     return lines
 
 
-def _labels(c: Ctx, xlabel: str | None, ylabel: str | None) -> list[str]:
+def _labels(c: Ctx, xlabel: str | None, ylabel: str | None, xnote: str = "") -> list[str]:
+    """Axis labels, each cut to one short line; ``xnote`` goes on a second line under x."""
     out = []
     if xlabel is not None:
-        out.append(f"{c.ax}.set_xlabel({short(xlabel)!r})")
+        out.append(f"{c.ax}.set_xlabel({short(xlabel) + xnote!r})")
     if ylabel is not None:
         out.append(f"{c.ax}.set_ylabel({short(ylabel)!r})")
     return out
@@ -172,7 +175,7 @@ def _dot(c: Ctx) -> list[str]:
         lines = _ordered_series(c, d.x)
         lines.append(f"sns.stripplot(x=v.values, y=labels, orient=\"h\", jitter=False, size=7, "
                      f"color={MAIN_COLOUR!r}, ax={c.ax})")
-    lines += _labels(c, c.measure_label() + "\n(axis does not start at zero)", d.x)
+    lines += _labels(c, c.measure_label(), d.x, xnote="\n(axis does not start at zero)")
     lines += _style(c, None) + [f'{c.ax}.grid(axis="y", color="#eeeeee", linewidth=0.8)']
     if d.log_scale:
         lines.append(f'{c.ax}.set_xscale("log")')
@@ -365,7 +368,8 @@ def _heatmap(c: Ctx) -> list[str]:
     cmap = f"cmap={DIVERGING_CMAP!r}, center=0" if signed else f"cmap={SEQUENTIAL_CMAP!r}"
     lines += ["t.index = t.index.astype(str)",
               "t.columns = t.columns.astype(str)",
-              f"sns.heatmap(t, {cmap}, annot=t.size <= 60, fmt=\".3g\", annot_kws={{\"fontsize\": 7}}, "
+              f"sns.heatmap(t, {cmap}, annot=t.size <= 60, fmt=\".3g\" if t.abs().max().max() < 1000 "
+              f"else \",.0f\", annot_kws={{\"fontsize\": 7}}, "
               f"linewidths=0.5, cbar_kws={{\"label\": {short(c.measure_label(), 30)!r}}}, ax={c.ax})"]
     lines += _labels(c, cols, rows)
     return lines

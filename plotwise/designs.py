@@ -364,7 +364,7 @@ def _with_facets(profile: Profile, designs: list[Design], hue: str | None) -> li
     if n <= THRESHOLDS["hues_warn"] or n > THRESHOLDS["max_facets"]:
         return designs
     extra = [_small_multiples_of(d, hue) for d in designs
-             if d.hue == hue and d.kind in ("line", "bar", "scatter", "histogram", "area", "dot",
+             if d.hue == hue and not d.options.get("time_as_categories") and d.kind in ("line", "bar", "scatter", "histogram", "area", "dot",
                                             "density", "regression")]
     return designs + extra
 
