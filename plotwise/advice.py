@@ -50,7 +50,11 @@ class Advice:
         raise PlotwiseError(f"no {kind!r} design in this advice; it has: {kinds}.")
 
     def shown(self, top: int | None = None) -> list[Design]:
-        return self.designs[: (top or self.top)]
+        """The designs drawn side by side: the best ``top`` that state nothing false (a design
+        that fails the expressiveness test is listed, never drawn as a recommendation, unless
+        nothing else exists)."""
+        good = [d for d in self.designs if d.expressive]
+        return (good or self.designs[:1])[: (top or self.top)]
 
     def show(self, top: int | None = None):
         """A matplotlib Figure with the top designs side by side (not shown through pyplot)."""
@@ -156,11 +160,27 @@ def _skewed(f: FieldProfile | None) -> bool:
             and f.minimum is not None and f.minimum > 0 and f.skew > THRESHOLDS["skew_log"])
 
 
+def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
+    """Where each group holds one row, a design draws the value itself, not a total or mean."""
+    unique: dict[tuple, bool] = {}
+    for d in designs:
+        if d.stat not in ("sum", "mean") or d.y is None:
+            continue
+        keys = tuple(c for c in (d.x, d.hue, d.facet) if c)
+        if keys not in unique:
+            w = working_frame(df, profile, list(keys) + [d.y]).dropna()
+            unique[keys] = not w.duplicated(subset=list(keys)).any()
+        if unique[keys]:
+            d.stat = "value"
+
+
 def _advise_task(df, profile, task, x, y, hue, agg, value_range):
     roles = choose_roles(profile, task, x, y, hue, df)
     designs = candidates(profile, task, roles, agg)
     if not designs:
         raise PlotwiseError(f"no design can show {task} for these columns.")
+    if agg is None:
+        _mark_single_values(df, profile, designs)
     stat = designs[0].stat if designs[0].stat not in ("distribution", "raw") else "sum"
     for d in designs:
         if d.stat not in ("distribution", "raw", "difference"):
@@ -265,9 +285,10 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
         designs = _distinct(designs)
         _favour_richer(designs)
     ranked = rank(designs)
-    shown_tasks = {d.task for d in ranked[:top]}
+    shown = ([d for d in ranked if d.expressive] or ranked[:1])[:top]
+    shown_tasks = {d.task for d in shown}
     merged: dict[tuple[str, str], Hazard] = {}
-    found = [h for t, h in wide if t in shown_tasks] + [h for d in ranked[:top] for h in d.hazards]
+    found = [h for t, h in wide if t in shown_tasks] + [h for d in shown for h in d.hazards]
     for h in found:
         key = (h.code, h.message)
         if key in merged:  # the same finding for several shown designs: one entry, all kinds

@@ -10,7 +10,7 @@ import numpy as np
 import pandas as pd
 
 from .profile import Profile
-from .rules import PANEL_DPI, PANEL_SIZE_IN, SCATTER_MARKER_AREA_PT2
+from .rules import PANEL_DPI, PANEL_SIZE_IN, SCATTER_MARKER_AREA_PT2, THRESHOLDS
 
 
 def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.DataFrame:
@@ -43,6 +43,32 @@ def aggregate(w: pd.DataFrame, by: list[str], y: str | None, stat: str) -> pd.Se
     if stat == "mean":
         return g[y].mean()
     return g[y].sum()
+
+
+def share_total(total: float, parts: int) -> dict:
+    """Do percentages (or fractions) of one whole add to 100 (or 1), allowing ±0.5 per part for
+    rounding (common practice)?"""
+    tol = THRESHOLDS["share_rounding_per_part"] * parts
+    whole = 100 if total > 5 else 1
+    adds_up = abs(total - whole) <= (tol if whole == 100 else tol / 100)
+    return {"sum": total, "parts": parts, "whole": whole, "tolerance": tol if whole == 100 else tol / 100,
+            "adds_up": adds_up}
+
+
+def mean_gap(used: pd.DataFrame, x: str, y: str) -> dict | None:
+    """Largest difference between group means in units of the pooled within-group standard
+    deviation (Cohen's d for the two most distant groups)."""
+    g = used.groupby(x, observed=True)[y]
+    means, sds, ns = g.mean(), g.std(ddof=1), g.size()
+    ok = ns > 1
+    if ok.sum() < 2:
+        return None
+    means, sds, ns = means[ok], sds[ok], ns[ok]
+    pooled = float(np.sqrt(((ns - 1) * sds ** 2).sum() / (ns - 1).sum()))
+    if not pooled > 0:
+        return None
+    spread = float(means.max() - means.min())
+    return {"d": spread / pooled, "range": spread, "sd": pooled}
 
 
 def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False) -> float:
@@ -96,9 +122,12 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
             total = float(vals.sum())
             if vmin >= 0 and total > 0:
                 out["min_share"] = vmin / total
+            if y and profile.fields[y].share_like and not hue:
+                out["share_total"] = share_total(total, len(vals))
         if y and task != "trend":
             sizes = used.groupby(x, observed=True).size()
             out["min_group_n"] = int(sizes.min()) if len(sizes) else 0
+            out["mean_gap"] = mean_gap(used, x, y)
     if task == "trend" and x and pd.api.types.is_datetime64_any_dtype(used[x].dtype):
         t = pd.Series(used[x].unique()).sort_values()
         steps = t.diff().dropna()

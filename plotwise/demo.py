@@ -95,6 +95,12 @@ TOUR = (
     ("correlate", "sailings", "correlate", "wind_knots", "delay_minutes", None),
     ("distribution", "sailings", "distribution", "crossing_minutes", None, None),
 )
+# More cases that show hazards being caught: (title, frame name, task, x, y, hue).
+HAZARD_TOUR = (
+    ("survey-shares", "survey", "proportion", "reason", "share_pct", None),
+    ("crossing-by-pier", "sailings", "compare", "pier", "crossing_minutes", None),
+    ("two-summers", "seasons", "compare", "pier", "weekday_passengers", None),
+)
 
 
 def main(argv=None) -> int:
@@ -111,7 +117,7 @@ def main(argv=None) -> int:
     out.mkdir(parents=True, exist_ok=True)
     data = demo_data()
     sections, texts = [], []
-    for title, frame, task, x, y, hue in TOUR:
+    for title, frame, task, x, y, hue in TOUR + HAZARD_TOUR:
         advice = advise(data[frame], task, x=x, y=y, hue=hue)
         png = figure_png(advice.show())
         (out / f"{title}.png").write_bytes(png)
@@ -123,7 +129,7 @@ def main(argv=None) -> int:
         "<!doctype html><meta charset='utf-8'><title>plotwise demo</title>"
         "<h1>plotwise demo: Harbourline ferries</h1>" + "".join(sections), encoding="utf-8")
     (out / "summary.txt").write_text("\n".join(texts), encoding="utf-8")
-    print(f"wrote {len(TOUR)} PNGs, summary.html and summary.txt to {out.resolve()}")
+    print(f"wrote {len(TOUR) + len(HAZARD_TOUR)} PNGs, summary.html and summary.txt to {out.resolve()}")
     return 0
 
 

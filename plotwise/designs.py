@@ -385,13 +385,15 @@ def _compare(profile: Profile, r: Roles, agg) -> list[Design]:
         out.append(Design("difference-bar", "compare", {"y position": group, "length": meas},
                           {"measure": meas, "category": group},
                           x=group, y=y, hue=period, stat=stat, zero_based=True, horizontal=True))
-        hue = None if hue == period else hue
-        if r.hue == period:
-            out.append(Design("grouped-bar", "compare", {"x position": group, "length": meas,
-                                                         "hue": period},
-                              {**base, "hue": period}, x=group, y=y, hue=period, stat=stat,
-                              zero_based=True, horizontal=horiz))
-            return out
+        hb = {**base, "hue": period}
+        out.append(Design("grouped-bar", "compare", {"x position": group, "length": meas,
+                                                     "hue": period},
+                          hb, x=group, y=y, hue=period, stat=stat, zero_based=True,
+                          horizontal=horiz))
+        out.append(Design("dot", "compare", {"y position": group, "x position": meas,
+                                             "hue": period}, hb, x=group, y=y, hue=period,
+                          stat=stat, horizontal=True))
+        return out
     if hue is None:
         out.append(Design("bar", "compare", {"x position": x, "length": meas}, dict(base), x=x,
                           y=y, stat=stat, zero_based=True, horizontal=horiz))
@@ -465,12 +467,14 @@ def _proportion(profile: Profile, r: Roles, agg) -> list[Design]:
     meas = y or "count"
     base = {"measure": meas, "category": x}
     horiz = _horizontal(profile, x)
+    # Values that are already percentages are drawn as they are, not re-normalised.
+    share = not (y is not None and profile.fields[y].share_like)
     if hue is None:
         return [
             Design("bar", "proportion", {"x position": x, "length": meas}, dict(base), x=x, y=y,
-                   stat=stat, zero_based=True, horizontal=horiz, options={"share": True}),
+                   stat=stat, zero_based=True, horizontal=horiz, options={"share": share}),
             Design("dot", "proportion", {"y position": x, "x position": meas}, dict(base), x=x,
-                   y=y, stat=stat, horizontal=True, options={"share": True}),
+                   y=y, stat=stat, horizontal=True, options={"share": share}),
             Design("pie", "proportion", {"angle": meas, "hue": x}, dict(base), x=x, y=y,
                    stat=stat),
             Design("stacked-bar-100", "proportion", {"length": meas, "hue": x}, dict(base),

@@ -148,7 +148,6 @@ def _not_a_whole(ctx: HazardContext) -> list[Hazard]:
     if ctx.task != "proportion" or ctx.y is None:
         return []
     f = ctx.profile.fields[ctx.y]
-    vals = ctx.stats.get("values")
     out = []
     if f.minimum is not None and f.minimum < 0:
         out.append(Hazard("not-a-whole", "severe",
@@ -157,19 +156,15 @@ def _not_a_whole(ctx: HazardContext) -> list[Hazard]:
                           "show the values on a bar chart from zero (a diverging bar for signed "
                           "values), not as shares", ("pie", "stacked-bar-100", "stacked-bar"),
                           (ctx.y,)))
-    if f.share_like and vals is not None and len(vals) and ctx.hue is None:
-        total = float(vals.sum())
-        parts = len(vals)
-        tol100 = THRESHOLDS["share_rounding_per_part"] * parts
-        if not (abs(total - 100) <= tol100 or abs(total - 1) <= tol100 / 100):
-            near = "100" if total > 5 else "1"
-            out.append(Hazard("not-a-whole", "severe",
-                              f"'{ctx.y}' looks like shares (its name says so) but its {parts} "
-                              f"parts add to {total:.4g}, not {near} (±{tol100:g} for rounding): "
-                              "they are not parts of one whole.",
-                              "if respondents could pick several answers, show each share as "
-                              "its own bar against 100%; otherwise check the numbers",
-                              ("pie", "stacked-bar-100"), (ctx.y,)))
+    total = ctx.stats.get("share_total")
+    if total is not None and not total["adds_up"] and ctx.hue is None:
+        out.append(Hazard("not-a-whole", "severe",
+                          f"'{ctx.y}' looks like shares (its name says so) but its {total['parts']} "
+                          f"parts add to {total['sum']:.4g}, not {total['whole']} "
+                          f"(±{total['tolerance']:g} for rounding): they are not parts of one whole.",
+                          "if respondents could pick several answers, show each share as its "
+                          "own bar against 100%; otherwise check the numbers",
+                          ("pie", "stacked-bar-100"), (ctx.y,)))
     return out
 
 
@@ -253,28 +248,15 @@ def _uneven_intervals(ctx: HazardContext) -> list[Hazard]:
        per_design=True)
 def _hidden_spread(ctx: HazardContext) -> list[Hazard]:
     d = ctx.design
-    if d.stat != "mean" or d.kind not in ("bar", "dot", "grouped-bar") or d.y is None:
+    gap = ctx.stats.get("mean_gap")
+    if d.stat != "mean" or d.kind not in ("bar", "dot", "grouped-bar") or gap is None:
         return []
-    w = ctx.working
-    if w is None or d.x not in w or d.y not in w:
-        return []
-    used = w[[d.x, d.y]].dropna()
-    g = used.groupby(d.x, observed=True)[d.y]
-    means, sds, ns = g.mean(), g.std(ddof=1), g.size()
-    ok = ns > 1
-    if ok.sum() < 2:
-        return []
-    means, sds, ns = means[ok], sds[ok], ns[ok]
-    pooled = float(np.sqrt(((ns - 1) * sds ** 2).sum() / (ns - 1).sum()))
-    if not pooled > 0:
-        return []
-    dmax = float((means.max() - means.min()) / pooled)
-    if dmax >= THRESHOLDS["hidden_spread_d"]:
+    if gap["d"] >= THRESHOLDS["hidden_spread_d"]:
         return []
     return [Hazard("hidden-spread", "warn",
-                   f"the average '{d.y}' differs across '{d.x}' by at most {means.max() - means.min():.3g}, "
-                   f"only {dmax:.2f} of the within-group standard deviation ({pooled:.3g}): the "
-                   "groups overlap heavily, which bars of means hide.",
+                   f"the average '{d.y}' differs across '{d.x}' by at most {gap['range']:.3g}, "
+                   f"only {gap['d']:.2f} of the within-group standard deviation ({gap['sd']:.3g}): "
+                   "the groups overlap heavily, which a chart of averages hides.",
                    "show the spread: a box or strip plot per group, or error bars",
                    (d.kind,), (d.x, d.y))]
 

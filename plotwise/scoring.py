@@ -87,7 +87,7 @@ def effectiveness(design: Design, profile: Profile) -> tuple[float, list[str]]:
 # ----------------------------------------------------------------------------------------------
 # Expressiveness (Mackinlay 1986): a design that states something false is kept last.
 # ----------------------------------------------------------------------------------------------
-def expressiveness(design: Design, profile: Profile) -> list[str]:
+def expressiveness(design: Design, profile: Profile, stats: dict | None = None) -> list[str]:
     """Reasons the design would state something false about the data; empty when expressive."""
     f = profile.fields
     bad = []
@@ -111,7 +111,11 @@ def expressiveness(design: Design, profile: Profile) -> list[str]:
         if design.stat == "mean":
             bad.append(f"averages of '{measure}' are not parts of one whole; stacking or "
                        "slicing them adds numbers that do not add up")
-    if kind == "pie" and design.task == "compare" and design.stat not in ("sum", "count"):
+    total = (stats or {}).get("share_total")
+    if kind in ("pie", "stacked-bar-100") and total is not None and not total["adds_up"]:
+        bad.append(f"the shares in '{measure}' add to {total['sum']:.4g}, not {total['whole']}: "
+                   "they are not parts of one whole")
+    if kind == "pie" and design.task == "compare" and design.stat not in ("sum", "count", "value"):
         bad.append("a pie says the values are shares of one whole, which a comparison of "
                    f"{design.stat}s is not")
     return bad
@@ -160,6 +164,14 @@ def data_fit(design: Design, profile: Profile, stats: dict) -> tuple[float, list
         if spread is not None and spread < 0.5:
             penalise(0.6, f"the values vary by {spread:.0%} of their size: an area filled from "
                      "zero flattens that change")
+    gap = stats.get("mean_gap")
+    if design.stat == "mean" and kind in ("bar", "dot", "grouped-bar") and gap is not None \
+            and gap["d"] < T["hidden_spread_d"]:
+        penalise(0.6, f"group averages differ by only {gap['d']:.2f} within-group standard "
+                 "deviations: the groups overlap, and averages alone hide it")
+    if kind in ("box", "strip", "violin") and design.task == "compare" and gap is not None \
+            and gap["d"] < T["hidden_spread_d"]:
+        why.append("the groups overlap heavily: showing each group's spread is the honest view")
     if kind == "pie":
         if ncat > T["pie_max_parts"]:
             penalise(0.4, f"{ncat} slices: angles beyond about {T['pie_max_parts']} parts are "
@@ -250,7 +262,7 @@ def score_design(design: Design, profile: Profile, stats: dict) -> Design:
     fit, fit_words = data_fit(design, profile, stats)
     W = SCORE_WEIGHTS
     score = W["effectiveness"] * eff + W["task_fit"] * task_fit + W["data_fit"] * fit
-    bad = expressiveness(design, profile)
+    bad = expressiveness(design, profile, stats)
     design.expressive = not bad
     if bad:
         score *= INEXPRESSIVE_FACTOR
