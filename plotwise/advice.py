@@ -31,6 +31,7 @@ class Advice:
     hazards: list[Hazard]
     notes: list[str] = field(default_factory=list)
     top: int = 3
+    request: dict = field(default_factory=dict)  # the arguments advise() was called with
     _df: pd.DataFrame | None = field(default=None, repr=False, compare=False)
 
     @property
@@ -298,5 +299,6 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
             merged[key] = h
     hazards = list(merged.values())
     hazards.sort(key=lambda h: -SEVERITIES.index(h.severity))
+    request = {"task": task, "x": x, "y": y, "hue": hue, "agg": agg, "value_range": value_range}
     return Advice(task=task, profile=profile, designs=ranked, hazards=hazards, notes=notes,
-                  top=top, _df=df)
+                  top=top, request=request, _df=df)

@@ -1,0 +1,221 @@
+"""The notebook front: ``%load_ext plotwise`` registers the ``%plotwise`` line magic and the
+``%%plotwise`` cell magic. A thin layer: it finds the DataFrame, calls ``advise`` and displays
+the result (a widget panel where widgets work, the static advice otherwise)."""
+
+from __future__ import annotations
+
+import ast
+import sys
+
+import pandas as pd
+from IPython.core.error import UsageError
+from IPython.core.magic import Magics, cell_magic, line_magic, magics_class
+from IPython.core.magic_arguments import argument, magic_arguments, parse_argstring
+
+from .advice import Advice, advise
+from .errors import PlotwiseError
+from .rules import TASKS
+
+_LAST: dict = {"advice": None, "name": "df"}
+
+
+def last() -> Advice | None:
+    """The advice from the most recent ``%plotwise``/``%%plotwise`` in this session (or None)."""
+    return _LAST["advice"]
+
+
+def _remember(advice: Advice, name: str) -> None:
+    _LAST["advice"] = advice
+    _LAST["name"] = name
+
+
+def say_error(message: str) -> None:
+    """A short readable message in the cell output, never a traceback."""
+    print(f"plotwise: {message}", file=sys.stderr)
+
+
+def frames_in(ns: dict) -> list[tuple[str, pd.DataFrame]]:
+    return [(k, v) for k, v in ns.items()
+            if isinstance(v, pd.DataFrame) and not k.startswith("_")]
+
+
+def frame_listing(ns: dict) -> str:
+    frames = frames_in(ns)
+    if not frames:
+        return "there are no DataFrames in the namespace."
+    return "DataFrames in the namespace: " + ", ".join(
+        f"{k} ({v.shape[0]}×{v.shape[1]})" for k, v in frames[:20])
+
+
+def name_of(frame: pd.DataFrame, ns: dict, default: str = "df") -> str:
+    for k, v in ns.items():
+        if v is frame and k.isidentifier() and not k.startswith("_"):
+            return k
+    return default
+
+
+def run_body(shell, body: str):
+    """Run the cell body in the user's namespace like a normal cell; return the value of its
+    last expression (or None). Raises what the body raises."""
+    code = shell.transform_cell(body)
+    tree = ast.parse(code)
+    if not tree.body:
+        return None
+    last_expr = None
+    if isinstance(tree.body[-1], ast.Expr):
+        last_expr = ast.Expression(tree.body.pop().value)
+    ns = shell.user_ns
+    if tree.body:
+        exec(compile(tree, "<plotwise cell>", "exec"), ns)  # noqa: S102
+    if last_expr is not None:
+        return eval(compile(last_expr, "<plotwise cell>", "eval"), ns)  # noqa: S307
+    return None
+
+
+def recent_displayed_frame(shell) -> tuple[str | None, pd.DataFrame | None]:
+    out = shell.user_ns.get("Out", {}) or {}
+    for key in sorted(out, reverse=True):
+        if isinstance(out[key], pd.DataFrame):
+            frame = out[key]
+            return name_of(frame, shell.user_ns, f"Out[{key}]"), frame
+    return None, None
+
+
+def split_positionals(words: list[str]) -> tuple[str | None, list[str]]:
+    """(task, rest): the first word is a task when it names one."""
+    if words and words[0].lower() in TASKS:
+        return words[0].lower(), words[1:]
+    return None, words
+
+
+@magics_class
+class PlotwiseMagics(Magics):
+    """Chart advice on the active DataFrame."""
+
+    def _show(self, advice: Advice, name: str, use_panel: bool) -> None:
+        from IPython.display import display
+
+        _remember(advice, name)
+        if use_panel:
+            try:
+                from .panel import AdvicePanel
+
+                display(AdvicePanel(advice, frame_name=name))
+                return
+            except ImportError:  # no ipywidgets: the static display serves
+                pass
+        display(advice)
+
+    def _advise(self, frame, args, task, name) -> None:
+        try:
+            advice = advise(frame, task, x=args.x, y=args.y, hue=args.hue, top=args.top)
+        except PlotwiseError as exc:
+            say_error(str(exc))
+            return
+        self._show(advice, name, not args.static)
+
+    @magic_arguments()
+    @argument("words", nargs="*", help="TASK (compare, trend, proportion, correlate, "
+              "distribution; optional) then DF_NAME; or 'code N' to put design N's code in the "
+              "next cell")
+    @argument("--x", help="column for the categories, time or first variable")
+    @argument("--y", help="column for the measure or second variable")
+    @argument("--hue", help="column that splits the data into coloured groups")
+    @argument("--top", type=int, default=3, help="how many designs to draw side by side")
+    @argument("--static", action="store_true", help="static display, no widget panel")
+    @line_magic("plotwise")
+    def plotwise_line(self, line: str = ""):
+        """Advise on a DataFrame by name: %plotwise [TASK] DF_NAME [--x COL] [--y COL]
+        [--hue COL] [--top N] [--static]. %plotwise code N puts the code of design N (1 = best)
+        from the last advice into the next cell."""
+        args = parse_argstring(self.plotwise_line, line)
+        words = list(args.words)
+        if words and words[0] == "code":
+            return self._code(words[1:])
+        task, rest = split_positionals(words)
+        ns = self.shell.user_ns
+        if len(rest) != 1:
+            raise UsageError("name one DataFrame: %plotwise [TASK] DF_NAME [options]; "
+                             + frame_listing(ns))
+        name = rest[0]
+        frame = ns.get(name)
+        if frame is None:
+            say_error(f"no variable named {name!r}; " + frame_listing(ns))
+            return None
+        if not isinstance(frame, pd.DataFrame):
+            say_error(f"{name!r} is a {type(frame).__name__}, not a pandas DataFrame; "
+                      + frame_listing(ns))
+            return None
+        self._advise(frame, args, task, name)
+        return None
+
+    @magic_arguments()
+    @argument("words", nargs="*", help="TASK (optional) and, optionally, the DataFrame's name")
+    @argument("--x", help="column for the categories, time or first variable")
+    @argument("--y", help="column for the measure or second variable")
+    @argument("--hue", help="column that splits the data into coloured groups")
+    @argument("--top", type=int, default=3, help="how many designs to draw side by side")
+    @argument("--static", action="store_true", help="static display, no widget panel")
+    @cell_magic("plotwise")
+    def plotwise_cell(self, line: str, cell: str):
+        """Run the cell, then advise on the DataFrame its last expression returns:
+        %%plotwise [TASK] [DF_NAME] [--x COL] [--y COL] [--hue COL] [--top N] [--static].
+        When the cell returns no DataFrame, the one named on the magic line is used, then the
+        most recently displayed one."""
+        args = parse_argstring(self.plotwise_cell, line)
+        task, rest = split_positionals(list(args.words))
+        if len(rest) > 1:
+            raise UsageError("at most one DataFrame name after the task: %%plotwise [TASK] [DF_NAME]")
+        ns = self.shell.user_ns
+        try:
+            value = run_body(self.shell, cell)
+        except Exception:  # the user's own code failed: show it as a normal cell would
+            self.shell.showtraceback()
+            return None
+        frame, name = None, "df"
+        if isinstance(value, pd.DataFrame):
+            frame, name = value, name_of(value, ns)
+        elif isinstance(value, (tuple, list)) and sum(isinstance(v, pd.DataFrame) for v in value) > 1:
+            say_error("the cell returns several DataFrames; return one, or name it on the magic "
+                      "line. " + frame_listing(ns))
+            return None
+        elif rest:
+            frame = ns.get(rest[0])
+            name = rest[0]
+            if not isinstance(frame, pd.DataFrame):
+                say_error(f"{rest[0]!r} is not a DataFrame in the namespace; " + frame_listing(ns))
+                return None
+        else:
+            name, frame = recent_displayed_frame(self.shell)
+            if frame is None:
+                say_error("the cell returned no DataFrame and none was displayed before; end the "
+                          "cell with the DataFrame, or name it: %%plotwise TASK DF_NAME. "
+                          + frame_listing(ns))
+                return None
+        self._advise(frame, args, task, name)
+        return None
+
+    def _code(self, words: list[str]):
+        advice = last()
+        if advice is None:
+            say_error("no advice yet in this session; run %plotwise or %%plotwise first.")
+            return None
+        if len(words) != 1 or not words[0].isdigit():
+            raise UsageError("usage: %plotwise code N (N = rank of the design, 1 = best)")
+        n = int(words[0])
+        if not 1 <= n <= len(advice.designs):
+            say_error(f"no design {n}; the last advice ranks designs 1..{len(advice.designs)}.")
+            return None
+        code = advice.designs[n - 1].code(_LAST["name"] if _LAST["name"].isidentifier() else "df")
+        self.shell.set_next_input(code, replace=False)
+        return None
+
+
+def load_ipython_extension(ipython) -> None:
+    ipython.register_magics(PlotwiseMagics)
+
+
+def unload_ipython_extension(ipython) -> None:
+    mm = ipython.magics_manager
+    for kind in ("line", "cell"):
+        mm.magics[kind].pop("plotwise", None)

@@ -1,0 +1,144 @@
+"""The widget panel around an Advice: switch task, pick columns, browse every ranked design,
+set a histogram's bin count, copy a design's code. Figures are drawn to PNG bytes from
+matplotlib Figure objects (never pyplot), so callbacks leave no figure open.
+
+Where the frontend cannot show widgets (an exported page, a terminal), the panel's mimebundle
+also carries the static HTML and PNG of the advice."""
+
+from __future__ import annotations
+
+import base64
+from dataclasses import replace
+
+import ipywidgets as widgets
+
+from .advice import Advice, advise
+from .codegen import short
+from .display import advice_html, figure_png, hazards_html
+from .errors import PlotwiseError
+from .rules import TASKS
+
+
+def _escape(text) -> str:
+    import html
+
+    return html.escape(str(text), quote=True)
+
+
+class AdvicePanel(widgets.VBox):
+    """An ipywidgets panel showing one Advice and letting the reader change it."""
+
+    def __init__(self, advice: Advice, frame_name: str = "df"):
+        self.advice = advice
+        self.frame_name = frame_name if frame_name.isidentifier() else "df"
+        self._frame = advice._frame()
+        self._busy = False
+        req = advice.request
+        auto = [("(auto)", None)]
+        cols = auto + [(short(c, 30), c) for c in advice.fields]
+        w = "190px"
+        self.task = widgets.Dropdown(options=[("any task", None)] + [(t, t) for t in TASKS],
+                                     value=req.get("task"), description="task",
+                                     layout=widgets.Layout(width=w))
+        self.x = widgets.Dropdown(options=cols, value=req.get("x"), description="x",
+                                  layout=widgets.Layout(width=w))
+        self.y = widgets.Dropdown(options=cols, value=req.get("y"), description="y",
+                                  layout=widgets.Layout(width=w))
+        self.hue = widgets.Dropdown(options=cols, value=req.get("hue"), description="hue",
+                                    layout=widgets.Layout(width=w))
+        self.message = widgets.HTML()
+        self.top_image = widgets.Image(format="png", layout=widgets.Layout(width="100%", max_width="1400px"))
+        self.hazards = widgets.HTML()
+        self.designs = widgets.Select(options=[], rows=12, description="",
+                                      layout=widgets.Layout(width="360px"))
+        self.detail_image = widgets.Image(format="png", layout=widgets.Layout(max_width="620px"))
+        self.bins = widgets.IntSlider(value=20, min=3, max=120, description="bins",
+                                      continuous_update=False,
+                                      layout=widgets.Layout(width="360px", display="none"))
+        self.reasons = widgets.HTML(layout=widgets.Layout(max_width="620px"))
+        self.code = widgets.Textarea(layout=widgets.Layout(width="100%", height="220px"))
+        for control in (self.task, self.x, self.y, self.hue):
+            control.observe(self._on_question, names="value")
+        self.designs.observe(self._on_design, names="value")
+        self.bins.observe(self._on_bins, names="value")
+        header = widgets.HBox([self.task, self.x, self.y, self.hue])
+        browse = widgets.HBox([
+            widgets.VBox([widgets.HTML("<b>All designs, best first</b>"), self.designs, self.bins]),
+            widgets.VBox([self.detail_image, self.reasons]),
+        ])
+        super().__init__([
+            header, self.message, self.top_image,
+            widgets.HTML("<b>What could mislead</b>"), self.hazards,
+            widgets.HTML("<b>Look closer</b>"), browse,
+            widgets.HTML("<b>Code for the selected design</b> (copy into a cell)"), self.code,
+        ])
+        self._show_advice()
+
+    # Updates -----------------------------------------------------------------------------
+    def _show_advice(self) -> None:
+        a = self.advice
+        self._top_png = figure_png(a.show())
+        self.top_image.value = self._top_png
+        self.hazards.value = hazards_html(a.hazards)
+        self._busy = True
+        try:
+            self.designs.options = [
+                (f"{i:>2}. {d.title} ({d.task}) {d.score:.2f}" + ("" if d.expressive else " ✗"), i - 1)
+                for i, d in enumerate(a.designs, 1)]
+            self.designs.value = 0
+        finally:
+            self._busy = False
+        self._show_design(0)
+
+    def _show_design(self, index: int, bins: int | None = None) -> None:
+        d = self.advice.designs[index]
+        if d.kind == "histogram":
+            if bins is not None:
+                d = replace(d, options={**d.options, "bins": int(bins)})
+            self.bins.layout.display = "flex"
+        else:
+            self.bins.layout.display = "none"
+        self.selected = d
+        try:
+            ax = self.advice.draw(d)
+            self.detail_image.value = figure_png(ax.figure)
+            self.message.value = ""
+        except PlotwiseError as exc:
+            self.message.value = f"<span style='color:#B00020'>{_escape(exc)}</span>"
+        items = "".join(f"<li>{_escape(r)}</li>" for r in d.reasons)
+        own = "".join(f"<li><b>{_escape(h.code)}</b>: {_escape(h.message)} <i>Fix:</i> "
+                      f"{_escape(h.fix)}</li>" for h in d.hazards)
+        self.reasons.value = (f"<b>{_escape(d.title)}</b> — score {d.score:.2f}<ul>{items}</ul>"
+                              + (f"<b>Hazards of this design</b><ul>{own}</ul>" if own else ""))
+        self.code.value = d.code(self.frame_name)
+
+    def _on_question(self, change) -> None:
+        if self._busy:
+            return
+        try:
+            self.advice = advise(self._frame, self.task.value, x=self.x.value, y=self.y.value,
+                                 hue=self.hue.value, top=self.advice.top)
+        except PlotwiseError as exc:
+            self.message.value = f"<span style='color:#B00020'>{_escape(exc)}</span>"
+            return
+        self.message.value = ""
+        self._show_advice()
+
+    def _on_design(self, change) -> None:
+        if self._busy or change["new"] is None:
+            return
+        self._show_design(change["new"])
+
+    def _on_bins(self, change) -> None:
+        if self._busy or self.selected.kind != "histogram":
+            return
+        self._show_design(self.designs.value, bins=change["new"])
+
+    # Display -----------------------------------------------------------------------------
+    def _repr_mimebundle_(self, **kwargs):
+        bundle = super()._repr_mimebundle_(**kwargs) or {}
+        bundle = dict(bundle)
+        bundle["text/html"] = advice_html(self.advice, png=self._top_png)
+        bundle["image/png"] = base64.b64encode(self._top_png).decode("ascii")
+        bundle["text/plain"] = self.advice.text()
+        return bundle

@@ -1,0 +1,129 @@
+"""The magics in a real IPython shell."""
+
+import matplotlib.pyplot as plt
+import pandas as pd
+import pytest
+from IPython.core.error import UsageError
+from IPython.testing.globalipapp import start_ipython
+from IPython.utils.capture import capture_output
+from open_data import grunfeld
+
+import plotwise
+
+
+@pytest.fixture(scope="module")
+def ip():
+    shell = start_ipython()
+    shell.run_cell("%load_ext plotwise")
+    yield shell
+    shell.run_cell("%unload_ext plotwise")
+
+
+@pytest.fixture
+def fresh(ip):
+    for k in [k for k, v in ip.user_ns.items() if isinstance(v, pd.DataFrame)]:
+        del ip.user_ns[k]
+    ip.user_ns["Out"].clear()
+    ip.user_ns["grunfeld"] = grunfeld()
+    return ip
+
+
+def outputs(c):
+    return [o.data for o in c.outputs]
+
+
+def test_cell_magic_takes_last_expression_and_keeps_assignments(fresh):
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "compare --x firm --y invest --static",
+                             "recent = grunfeld[grunfeld.year >= 1950]\nrecent")
+    assert "recent" in fresh.user_ns and len(fresh.user_ns["recent"]) == 55
+    data = outputs(c)
+    assert len(data) == 1 and {"text/html", "image/png"} <= set(data[0])
+    a = plotwise.last()
+    assert a.profile.rows == 55 and a.task == "compare" and a.designs[0].x == "firm"
+    assert not c.stderr
+
+
+def test_cell_magic_dataframe_by_name(fresh):
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "trend grunfeld --x year --y invest --static", "x = 1")
+    assert fresh.user_ns["x"] == 1
+    assert plotwise.last().designs[0].kind in ("line", "area") and not c.stderr
+
+
+def test_cell_magic_falls_back_to_displayed_frame(fresh):
+    fresh.run_cell("shown = grunfeld.head(40)\nshown", store_history=True)
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "distribution --x value --static", "pass")
+    assert not c.stderr, c.stderr
+    assert plotwise.last().profile.rows == 40
+    # IPython itself refuses a cell magic with an empty body, with a UsageError.
+    with pytest.raises(UsageError):
+        fresh.run_cell_magic("plotwise", "distribution", "")
+
+
+def test_cell_magic_missing_and_ambiguous(fresh):
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "compare", "y = 2")
+    assert "no DataFrame" in c.stderr and "grunfeld (220×5)" in c.stderr
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "compare", "grunfeld, grunfeld.head()")
+    assert "several DataFrames" in c.stderr
+
+
+def test_line_magic_and_errors(fresh):
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "correlate grunfeld --static")
+    assert not c.stderr and plotwise.last().task == "correlate"
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "compare nothing_here")
+    assert "no variable named 'nothing_here'" in c.stderr
+    fresh.user_ns["numbers"] = [1, 2, 3]
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "compare numbers")
+    assert "not a pandas DataFrame" in c.stderr
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "compare grunfeld --x nope")
+    assert c.stderr.startswith("plotwise: no column named 'nope'")
+    assert "Traceback" not in c.stderr and "Traceback" not in c.stdout
+
+
+def test_bad_options_raise_usage_error(fresh):
+    with pytest.raises(UsageError):
+        fresh.run_line_magic("plotwise", "compare grunfeld --top many")
+    with pytest.raises(UsageError):
+        fresh.run_line_magic("plotwise", "compare grunfeld --colour red")
+    with pytest.raises(UsageError):
+        fresh.run_line_magic("plotwise", "compare")
+    doc = fresh.find_line_magic("plotwise").__doc__
+    assert "--hue" in doc and "code N" in doc
+
+
+def test_cell_body_error_shows_users_traceback(fresh):
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "compare", "1 / 0")
+    assert "ZeroDivisionError" in c.stdout + c.stderr
+
+
+def test_code_n_puts_runnable_code_in_next_cell(fresh, monkeypatch):
+    got = {}
+    monkeypatch.setattr(fresh, "set_next_input", lambda text, replace=False: got.setdefault("code", text))
+    fresh.run_line_magic("plotwise", "compare grunfeld --x firm --y invest --static")
+    fresh.run_line_magic("plotwise", "code 2")
+    code = got["code"]
+    assert "grunfeld['firm']" in code and "grunfeld['invest']" in code
+    ns = {"grunfeld": fresh.user_ns["grunfeld"]}
+    exec(code, ns)
+    assert ns["fig"].axes
+    plt.close(ns["fig"])
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "code 99")
+    assert "no design 99" in c.stderr
+
+
+def test_panel_shown_by_default(fresh):
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "compare grunfeld --x firm --y invest")
+    bundle = outputs(c)[0]
+    assert "application/vnd.jupyter.widget-view+json" in bundle
+    assert "text/html" in bundle and "image/png" in bundle  # static fallback for exports

@@ -1,0 +1,73 @@
+"""The widget panel, driven in the kernel: each control changes what it should and no figure
+is left open."""
+
+import matplotlib.pyplot as plt
+import pytest
+from open_data import grunfeld, iris
+
+import plotwise
+from plotwise.panel import AdvicePanel
+
+
+@pytest.fixture
+def panel():
+    return AdvicePanel(plotwise.advise(grunfeld(), "compare", x="firm", y="invest"), "grunfeld")
+
+
+def test_initial_state(panel):
+    assert bytes(panel.top_image.value).startswith(b"\x89PNG")
+    assert len(panel.designs.options) == len(panel.advice.designs)
+    assert "grunfeld['invest']" in panel.code.value
+    assert panel.bins.layout.display == "none"
+
+
+def test_switch_task(panel):
+    before = panel.top_image.value
+    panel.task.value = "trend"
+    panel.x.value = "year"
+    assert panel.advice.task == "trend"
+    assert panel.top_image.value != before
+    assert panel.advice.designs[0].kind in ("line", "area")
+    assert "year" in panel.code.value
+    assert plt.get_fignums() == []
+
+
+def test_pick_design_beyond_top_three(panel):
+    before = panel.detail_image.value
+    panel.designs.value = 4
+    d = panel.advice.designs[4]
+    assert panel.selected is d
+    assert panel.detail_image.value != before
+    assert d.title in panel.reasons.value
+    assert panel.code.value == d.code("grunfeld")
+
+
+def test_swap_column(panel):
+    panel.y.value = "value"
+    assert panel.advice.designs[0].y == "value"
+    assert "grunfeld['value']" in panel.code.value and "grunfeld['invest']" not in panel.code.value
+
+
+def test_bad_choice_shows_message_not_traceback(panel):
+    panel.y.value = "firm"  # text is not a measure
+    assert "numeric" in panel.message.value
+    assert panel.advice.designs[0].y == "invest"  # the previous advice stays
+
+
+def test_bins_control_on_histogram():
+    p = AdvicePanel(plotwise.advise(iris(), "distribution", x="petal length (cm)"), "iris")
+    assert p.selected.kind == "histogram"
+    assert p.bins.layout.display == "flex"
+    before = p.detail_image.value
+    p.bins.value = 7
+    assert p.detail_image.value != before
+    assert "bins=np.histogram_bin_edges(d['petal length (cm)'], bins=7)" in p.code.value
+    p.designs.value = 1  # not a histogram: the control hides
+    assert p.bins.layout.display == "none"
+    assert plt.get_fignums() == []
+
+
+def test_static_fallback_in_bundle(panel):
+    bundle = panel._repr_mimebundle_()
+    assert "application/vnd.jupyter.widget-view+json" in bundle
+    assert "<img" in bundle["text/html"] and bundle["image/png"]
