@@ -14,12 +14,13 @@ $(STAMP): pyproject.toml
 
 demo: $(STAMP)
 	$(BIN)/python -m plotwise.demo build/demo
+	$(BIN)/python tools/export_tour.py demo_notebooks/tour.ipynb build/demo/tour.html
 
 test: $(STAMP)
 	$(BIN)/python -m pytest -q
 
 lint: $(STAMP)
-	$(BIN)/ruff check plotwise tests
+	$(BIN)/ruff check plotwise tests tools
 
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py
