@@ -145,7 +145,8 @@ def data_fit(design: Design, profile: Profile, stats: dict) -> tuple[float, list
         penalise(0.35 if nhue > T["hues_severe"] else 0.6,
                  f"{nhue} colours for '{design.hue}' is more than the ~7 a reader can tell "
                  "apart (Miller 1956)")
-    if kind in ("bar", "grouped-bar", "stacked-bar", "dot") and ncat > T["max_bars"]:
+    if kind in ("bar", "grouped-bar", "stacked-bar", "dot") and ncat > T["max_bars"] \
+            and design.task != "trend":
         penalise(0.5, f"{ncat} bars crowd the axis; filter to the top ones or group the rest")
     if kind in ("bar", "dot", "grouped-bar") and design.task in ("compare", "proportion"):
         spread = stats.get("relative_spread")
