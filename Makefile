@@ -4,7 +4,7 @@ VENV := .venv
 BIN := $(VENV)/bin
 STAMP := $(VENV)/.installed
 
-.PHONY: demo test lint bench clean
+.PHONY: demo test lint bench soak clean
 
 $(STAMP): pyproject.toml
 	$(PY) -m venv $(VENV)
@@ -18,6 +18,9 @@ demo: $(STAMP)
 
 test: $(STAMP)
 	$(BIN)/python -m pytest -q
+
+soak: $(STAMP)
+	$(BIN)/python -m pytest -q -s -m soak tests/test_soak.py
 
 lint: $(STAMP)
 	$(BIN)/ruff check plotwise tests tools

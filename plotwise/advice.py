@@ -264,6 +264,9 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     if not isinstance(top, int) or top < 1:
         raise PlotwiseError("top must be a whole number ≥ 1.")
     profile = profile_frame(df)
+    from .designs import check_roles
+
+    check_roles(profile, x, y, hue)
     tasks = [task] if task else list(TASKS)
     designs: list[Design] = []
     wide: list[tuple[str, Hazard]] = []

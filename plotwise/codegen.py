@@ -35,6 +35,8 @@ def column_expr(f: FieldProfile, frame: str) -> str:
         return f'pd.to_datetime({ref}, format="ISO8601", errors="coerce")'
     if f.is_timedelta:
         return f"{ref}.dt.total_seconds()"
+    if f.as_text:
+        return f'{ref}.astype("string")'  # mixed Python objects: compare them as text
     if f.level == "temporal" and f.is_integer:
         return f'{ref}.round().astype("Int64")'  # integer years: label 1950, not 1950.0
     if f.level == "quantitative":

@@ -20,7 +20,9 @@ def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.
     for label in columns:
         f = profile.fields[label]
         s = df[f.name]
-        if f.parse_dates:
+        if f.as_text:
+            s = s.astype("string")
+        elif f.parse_dates:
             with warnings.catch_warnings():
                 warnings.simplefilter("ignore")
                 s = pd.to_datetime(s, errors="coerce", format="ISO8601")

@@ -172,10 +172,22 @@ def strongest_pair(df, profile: Profile, labels: list[str]) -> tuple[str, str, f
     return best
 
 
-def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
+def check_roles(profile: Profile, x, y, hue) -> tuple[str | None, str | None, str | None]:
+    """The caller's column names as profile labels; each must exist and differ from the others."""
     x = check_column(profile, x, "x")
     y = check_column(profile, y, "y")
     hue = check_column(profile, hue, "hue")
+    named = [(k, c) for k, c in (("x", x), ("y", y), ("hue", hue)) if c is not None]
+    for i, (k1, c1) in enumerate(named):
+        for k2, c2 in named[i + 1:]:
+            if c1 == c2:
+                raise PlotwiseError(f"{k1} and {k2} both name the column {c1!r}; give each role "
+                                    "a different column (or leave one out to let plotwise choose).")
+    return x, y, hue
+
+
+def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
+    x, y, hue = check_roles(profile, x, y, hue)
     r = Roles(x=x, y=y, hue=hue)
     given = {c for c in (x, y, hue) if c}
     f = profile.fields

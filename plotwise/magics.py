@@ -134,6 +134,9 @@ class PlotwiseMagics(Magics):
             return self._code(words[1:])
         task, rest = split_positionals(words)
         ns = self.shell.user_ns
+        if len(rest) == 2 and task is None:
+            say_error(f"unknown task {rest[0]!r}; use one of: {', '.join(TASKS)} (or leave it out).")
+            return None
         if len(rest) != 1:
             raise UsageError("name one DataFrame: %plotwise [TASK] DF_NAME [options]; "
                              + frame_listing(ns))
@@ -183,7 +186,9 @@ class PlotwiseMagics(Magics):
             frame = ns.get(rest[0])
             name = rest[0]
             if not isinstance(frame, pd.DataFrame):
-                say_error(f"{rest[0]!r} is not a DataFrame in the namespace; " + frame_listing(ns))
+                what = "not a DataFrame in the namespace" if rest[0] in ns else (
+                    f"neither a task ({', '.join(TASKS)}) nor a variable")
+                say_error(f"{rest[0]!r} is {what}; " + frame_listing(ns))
                 return None
         else:
             name, frame = recent_displayed_frame(self.shell)

@@ -48,6 +48,7 @@ class FieldProfile:
     time_step: str | None = None
     time_gaps: int = 0
     position: int = 0  # column position in the frame
+    as_text: bool = False  # values are mixed Python objects, compared as their text
 
     @property
     def usable(self) -> int:
@@ -186,6 +187,11 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
 
     # Strings and mixed objects.
     fp.top_labels = _top_labels(s)
+    if pd.api.types.is_object_dtype(dtype):
+        kinds = {type(v).__name__ for v in s.dropna().head(1000)}
+        if kinds - {"str"}:
+            fp.as_text = True
+            ev.append(f"mixed Python values ({', '.join(sorted(kinds))}): compared as text")
     if _looks_like_dates(s):
         fp.level = "temporal"
         fp.parse_dates = True

@@ -157,7 +157,8 @@ def test_frame_and_style_untouched():
 @pytest.mark.parametrize("kwargs,words", [
     (dict(task="explain"), "unknown task"),
     (dict(task="compare", x="nope"), "no column named 'nope'"),
-    (dict(task="trend", x="firm", y="firm"), "y must be a numeric measure"),
+    (dict(task="trend", x="year", y="firm"), "y must be a numeric measure"),
+    (dict(task="trend", x="firm", y="firm"), "both name the column"),
     (dict(task="compare", agg="total"), "unknown agg"),
     (dict(task="compare", value_range=(5,)), "value_range"),
 ])

@@ -85,6 +85,12 @@ def test_line_magic_and_errors(fresh):
     with capture_output() as c:
         fresh.run_line_magic("plotwise", "compare grunfeld --x nope")
     assert c.stderr.startswith("plotwise: no column named 'nope'")
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "explain grunfeld")
+    assert "unknown task 'explain'" in c.stderr
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "explain", "x = 3")
+    assert "neither a task" in c.stderr
     assert "Traceback" not in c.stderr and "Traceback" not in c.stdout
 
 

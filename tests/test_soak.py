@@ -1,0 +1,61 @@
+"""Repeated advise + draw: memory stays flat and no figure is left open."""
+
+import gc
+
+import matplotlib.pyplot as plt
+import numpy as np
+import pandas as pd
+import pytest
+
+import plotwise
+from plotwise.display import figure_png
+
+
+def rss_mb() -> float:
+    with open("/proc/self/statm") as f:
+        pages = int(f.read().split()[1])
+    import os
+
+    return pages * os.sysconf("SC_PAGE_SIZE") / 2**20
+
+
+def frame(n=5000, seed=0):
+    rng = np.random.default_rng(seed)
+    return pd.DataFrame({
+        "group": np.array(list("ABCDEFGH"))[rng.integers(0, 8, n)],
+        "when": pd.Timestamp("2024-01-01") + pd.to_timedelta(rng.integers(0, 365, n), unit="D"),
+        "amount": rng.gamma(2, 10, n),
+        "other": rng.normal(size=n),
+    })
+
+
+def cycle(df, i):
+    task = ("compare", "trend", "correlate", "distribution", "proportion")[i % 5]
+    a = plotwise.advise(df, task)
+    figure_png(a.show())
+
+
+def soak(cycles):
+    df = frame()
+    for i in range(10):  # warm caches (fonts, seaborn, numpy) before measuring
+        cycle(df, i)
+    gc.collect()
+    start = rss_mb()
+    for i in range(cycles):
+        cycle(df, i)
+    gc.collect()
+    return rss_mb() - start
+
+
+def test_quick_soak_50_cycles():
+    growth = soak(50)
+    assert growth < 50, f"resident memory grew by {growth:.1f} MB"
+    assert plt.get_fignums() == []
+
+
+@pytest.mark.soak
+def test_soak_500_cycles():
+    growth = soak(500)
+    print(f"\n500 cycles: resident memory grew by {growth:.1f} MB")
+    assert growth < 50
+    assert plt.get_fignums() == []
