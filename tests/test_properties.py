@@ -146,3 +146,21 @@ def test_generated_enough_frames():
 
         for msg, n in Counter(MESSAGES).most_common(25):
             print(f"{n:5d}  {msg}")
+
+
+# Regression tests for bugs the generated frames found.
+def test_regression_same_column_in_two_roles():
+    df = pd.DataFrame({"a": [41, 3, 5]})
+    with pytest.raises(PlotwiseError, match="x and y both name the column 'a'"):
+        plotwise.advise(df, None, x="a", y="a")
+
+
+def test_regression_mixed_object_column():
+    pool = [1, "a", None, 2.5, "b", ("t",), True]
+    df = pd.DataFrame({"a": pd.Series([pool[i % 7] for i in range(40)], dtype=object)})
+    before = copy.deepcopy(df)
+    advice = plotwise.advise(df, "distribution")
+    assert advice.fields["a"].as_text
+    fig = Figure()
+    draw(advice.designs[0], df, fig.subplots())
+    pd.testing.assert_frame_equal(df, before)
