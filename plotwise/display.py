@@ -66,15 +66,21 @@ STYLE = """
 """
 
 
+CELL = "style='text-align:left;vertical-align:top;padding:3px 8px;border-bottom:1px solid #e3e3e3'"
+
+
 def hazards_html(hazards) -> str:
+    """The hazards as a table (inline styles, so it reads the same inside any frontend)."""
     if not hazards:
-        return "<p>No hazards found.</p>"
+        return "<p class='pw-none'>No hazards found.</p>"
     rows = "".join(
-        f"<tr><td style='color:{SEVERITY_COLOUR[h.severity]};font-weight:bold'>{_e(h.severity)}</td>"
-        f"<td><code>{_e(h.code)}</code></td><td>{_e(h.message)}</td><td>{_e(h.fix)}</td></tr>"
+        f"<tr class='pw-hazard' data-code='{_e(h.code)}'>"
+        f"<td {CELL}><b style='color:{SEVERITY_COLOUR[h.severity]}'>{_e(h.severity)}</b></td>"
+        f"<td {CELL}><code>{_e(h.code)}</code></td><td {CELL}>{_e(h.message)}</td>"
+        f"<td {CELL}>{_e(h.fix)}</td></tr>"
         for h in hazards)
-    return ("<table><tr><th>severity</th><th>code</th><th>what could mislead</th><th>fix</th></tr>"
-            f"{rows}</table>")
+    head = "".join(f"<th {CELL}>{t}</th>" for t in ("severity", "code", "what could mislead", "fix"))
+    return f"<table style='border-collapse:collapse'><tr>{head}</tr>{rows}</table>"
 
 
 def profile_html(advice: Advice) -> str:

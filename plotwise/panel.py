@@ -59,6 +59,13 @@ class AdvicePanel(widgets.VBox):
         self.code = widgets.Textarea(layout=widgets.Layout(width="100%", height="220px"))
         for control in (self.task, self.x, self.y, self.hue):
             control.observe(self._on_question, names="value")
+        # Stable class names for styling and for browser tests.
+        for widget, name in ((self.task, "task"), (self.x, "x"), (self.y, "y"), (self.hue, "hue"),
+                             (self.message, "message"), (self.top_image, "top"),
+                             (self.hazards, "hazards"), (self.designs, "designs"),
+                             (self.detail_image, "detail"), (self.bins, "bins"),
+                             (self.reasons, "reasons"), (self.code, "code")):
+            widget.add_class(f"pw-{name}")
         self.designs.observe(self._on_design, names="value")
         self.bins.observe(self._on_bins, names="value")
         header = widgets.HBox([self.task, self.x, self.y, self.hue])
@@ -66,12 +73,13 @@ class AdvicePanel(widgets.VBox):
             widgets.VBox([widgets.HTML("<b>All designs, best first</b>"), self.designs, self.bins]),
             widgets.VBox([self.detail_image, self.reasons]),
         ])
-        super().__init__([
+        super().__init__(layout=widgets.Layout(max_width="1400px"), children=[
             header, self.message, self.top_image,
             widgets.HTML("<b>What could mislead</b>"), self.hazards,
             widgets.HTML("<b>Look closer</b>"), browse,
             widgets.HTML("<b>Code for the selected design</b> (copy into a cell)"), self.code,
         ])
+        self.add_class("pw-panel")
         self._show_advice()
 
     # Updates -----------------------------------------------------------------------------
