@@ -4,7 +4,7 @@ VENV := .venv
 BIN := $(VENV)/bin
 STAMP := $(VENV)/.installed
 
-.PHONY: demo test lint bench soak clean
+.PHONY: demo test test-browser lint bench soak clean
 
 $(STAMP): pyproject.toml
 	$(PY) -m venv $(VENV)
@@ -19,11 +19,23 @@ demo: $(STAMP)
 test: $(STAMP)
 	$(BIN)/python -m pytest -q
 
+BROWSER_STAMP := $(VENV)/.browser-installed
+
+$(BROWSER_STAMP): $(STAMP)
+	$(BIN)/python -m pip install --quiet -e ".[test,lint,browser]"
+	command -v chromium >/dev/null 2>&1 || (apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium)
+	touch $(BROWSER_STAMP)
+
+# JupyterLab + headless Chromium: the panel used as a person would, and the exported tour offline.
+test-browser: $(BROWSER_STAMP)
+	test -f build/demo/tour.html || $(MAKE) demo
+	$(BIN)/python -m pytest -q -p no:cacheprovider tests_browser
+
 soak: $(STAMP)
 	$(BIN)/python -m pytest -q -s -m soak tests/test_soak.py
 
 lint: $(STAMP)
-	$(BIN)/ruff check plotwise tests tools
+	$(BIN)/ruff check plotwise tests tests_browser tools
 
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py

@@ -181,6 +181,8 @@ def _dot(c: Ctx) -> list[str]:
     lines += _style(c, None) + [f'{c.ax}.grid(axis="y", color="#eeeeee", linewidth=0.8)']
     if d.log_scale:
         lines.append(f'{c.ax}.set_xscale("log")')
+    else:
+        lines.append(f'{c.ax}.locator_params(axis="x", nbins=5)')
     return lines
 
 
