@@ -8,7 +8,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 import pandas as pd
 
-from .datastats import choose_bins, design_stats, working_frame
+from .datastats import choose_bins, design_stats, skewed, working_frame
 from .designs import Design, candidates, choose_roles
 from .errors import PlotwiseError
 from .hazards import SEVERITIES, Hazard, HazardContext, run_checks
@@ -156,11 +156,6 @@ def _check_range(value_range):
     return lo, hi
 
 
-def _skewed(f: FieldProfile | None) -> bool:
-    return (f is not None and f.level == "quantitative" and f.skew is not None
-            and f.minimum is not None and f.minimum > 0 and f.skew > THRESHOLDS["skew_log"])
-
-
 def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
     """Where each group holds one row, a design draws the value itself, not a total or mean."""
     unique: dict[tuple, bool] = {}
@@ -175,7 +170,24 @@ def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
             d.stat = "value"
 
 
-def _advise_task(df, profile, task, x, y, hue, agg, value_range):
+def _colour_reason(d: Design, profile: Profile) -> str | None:
+    from .colour import scheme_for
+
+    if "hue" in d.encoding and d.encoding["hue"] in profile.fields and d.kind != "pie":
+        f = profile.fields[d.encoding["hue"]]
+        if d.options.get("palette"):
+            return f"colour: your palette of {len(d.options['palette'])} colours for '{f.label}'"
+        return "colour: " + scheme_for("nominal", n_levels=f.distinct)[1]
+    if "lightness" in d.encoding:
+        col = d.encoding["lightness"]
+        f = profile.fields.get(col)
+        if d.options.get("cmap"):
+            return f"colour: your colormap '{d.options['cmap']}' for '{col}'"
+        return "colour: " + scheme_for("quantitative", signed=bool(f and f.signed))[1]
+    return None
+
+
+def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, cmap=None):
     roles = choose_roles(profile, task, x, y, hue, df)
     designs = candidates(profile, task, roles, agg)
     if not designs:
@@ -192,14 +204,23 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range):
         cols = ", ".join(repr(c) for c in dict.fromkeys([roles.x, roles.y, roles.hue]) if c)
         raise PlotwiseError(f"no row has values in all of {cols}; nothing to draw for {task}.")
     extra_reasons: dict[int, list[str]] = {}
+    cmap_name = None
+    if cmap is not None:
+        from .colour import resolve_cmap
+
+        cmap_name = resolve_cmap(cmap).name
     bins = None
     if task == "distribution" and profile.fields[roles.x].level == "quantitative":
         w = working_frame(df, profile, [roles.x])
         vals = w[roles.x].dropna().to_numpy(dtype=float)
-        bins = choose_bins(vals, log=_skewed(profile.fields[roles.x]))
+        bins = choose_bins(vals, log=skewed(profile.fields[roles.x]))
     for d in designs:
         d.profile = profile
-        logs = [c for c in (d.x, d.y) if c and _skewed(profile.fields.get(c))]
+        if palette:
+            d.options["palette"] = list(palette)
+        if cmap is not None:
+            d.options["cmap"] = cmap_name
+        logs = [c for c in (d.x, d.y) if c and skewed(profile.fields.get(c))]
         if logs and d.kind in LOG_KINDS:
             d.options["log_columns"] = logs
             d.log_scale = bool(logs)
@@ -212,12 +233,15 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range):
         if d.kind == "histogram" and bins is not None:
             d.options["bins"] = bins[0]
             extra_reasons.setdefault(id(d), []).append(bins[1])
+        colour = _colour_reason(d, profile)
+        if colour:
+            extra_reasons.setdefault(id(d), []).append(colour)
         score_design(d, profile, stats)
         d.reasons[1:1] = extra_reasons.get(id(d), [])
         if roles.notes:
             d.reasons.append("columns chosen by plotwise: " + "; ".join(roles.notes))
     ctx = HazardContext(df=df, profile=profile, task=task, x=roles.x, y=roles.y, hue=roles.hue,
-                        stat=stat, stats=stats, value_range=value_range,
+                        stat=stat, stats=stats, value_range=value_range, palette=palette, cmap=cmap,
                         working=working_frame(df, profile, [c for c in dict.fromkeys(
                             [roles.x, roles.y, roles.hue]) if c]))
     wide = run_checks(ctx, designs)
@@ -249,18 +273,33 @@ def _favour_richer(designs: list[Design]) -> None:
 
 
 def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | None = None,
-           value_range=None, top: int = 3) -> Advice:
+           value_range=None, palette=None, cmap=None, top: int = 3) -> Advice:
     """Rank chart designs for ``task`` on ``df`` and flag what could mislead.
 
     task: one of compare, trend, proportion, correlate, distribution; None ranks across the
     tasks the columns support. x, y, hue: column names (inferred when left out). agg: how
     compare/trend aggregate rows per category (sum, mean, median, count). value_range: a
     (low, high) value axis you intend to use; plotwise checks it (e.g. for a truncated baseline).
+    palette: your colours for groups (names or hex codes); cmap: your colormap (name or
+    matplotlib Colormap) for lightness encodings. Both are drawn and checked (colour-vision
+    deficiency, lightness).
     """
     task = _check_task(task)
     if agg is not None and agg not in AGGS:
         raise PlotwiseError(f"unknown agg {agg!r}; use one of: {', '.join(AGGS)}.")
     value_range = _check_range(value_range)
+    if palette is not None:
+        from .colour import to_rgb_array
+
+        if isinstance(palette, str) or len(palette) < 2:
+            raise PlotwiseError("palette must be a list of at least two colours, e.g. "
+                                "['#0072B2', '#E69F00'].")
+        to_rgb_array(palette)
+        palette = [str(c) for c in palette]
+    if cmap is not None:
+        from .colour import resolve_cmap
+
+        resolve_cmap(cmap)
     if not isinstance(top, int) or top < 1:
         raise PlotwiseError("top must be a whole number ≥ 1.")
     profile = profile_frame(df)
@@ -274,7 +313,7 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     errors = []
     for t in tasks:
         try:
-            ds, hz, nt = _advise_task(df, profile, t, x, y, hue, agg, value_range)
+            ds, hz, nt = _advise_task(df, profile, t, x, y, hue, agg, value_range, palette, cmap)
         except PlotwiseError as exc:
             if task:
                 raise
@@ -302,6 +341,7 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
             merged[key] = h
     hazards = list(merged.values())
     hazards.sort(key=lambda h: -SEVERITIES.index(h.severity))
-    request = {"task": task, "x": x, "y": y, "hue": hue, "agg": agg, "value_range": value_range}
+    request = {"task": task, "x": x, "y": y, "hue": hue, "agg": agg, "value_range": value_range,
+               "palette": palette, "cmap": cmap}
     return Advice(task=task, profile=profile, designs=ranked, hazards=hazards, notes=notes,
                   top=top, request=request, _df=df)

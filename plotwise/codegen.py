@@ -47,9 +47,13 @@ def column_expr(f: FieldProfile, frame: str) -> str:
     return ref
 
 
-def palette_expr(n_hint: int, count: str | None = None) -> str:
-    """Okabe & Ito (2008) colours, cut to the number of levels drawn (``count``, an expression)
-    so seaborn gets exactly as many as it needs; husl for more levels than the palette has."""
+def palette_expr(n_hint: int, count: str | None = None, own: list | None = None) -> str:
+    """Okabe & Ito (2008) colours (or the caller's ``own``), cut to the number of levels drawn
+    (``count``, an expression) so seaborn gets exactly as many as it needs; husl for more levels
+    than the palette has."""
+    if own:
+        cycled = f"({list(own)!r} * {n_hint})"
+        return cycled + (f"[:{count}]" if count else f"[:{n_hint}]")
     if n_hint <= len(OKABE_ITO):
         return repr(list(OKABE_ITO)) + (f"[:{count}]" if count else "")
     return f'sns.color_palette("husl", {count or n_hint})'
@@ -63,6 +67,12 @@ class Ctx:
         self.p = profile
         self.data = data
         self.ax = ax
+
+    def palette(self, n_hint: int, count: str | None = None) -> str:
+        return palette_expr(n_hint, count, self.d.options.get("palette"))
+
+    def cmap(self, default: str = SEQUENTIAL_CMAP) -> str:
+        return repr(self.d.options.get("cmap") or default)
 
     def lit(self, label) -> str:
         return repr(label)
@@ -171,7 +181,7 @@ def _dot(c: Ctx) -> list[str]:
                  if c.nominal(d.x) else f"order = v[{d.x!r}].unique()",
                  f"hues = sorted(v[{d.hue!r}].unique())",
                  f"sns.stripplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=list(order), "
-                 f"hue_order=hues, palette={palette_expr(c.f(d.hue).distinct, 'len(hues)')}, jitter=False, "
+                 f"hue_order=hues, palette={c.palette(c.f(d.hue).distinct, 'len(hues)')}, jitter=False, "
                  f"size=7, ax={c.ax})"]
     else:
         lines = _ordered_series(c, d.x)
@@ -200,7 +210,7 @@ def _time_dots(c: Ctx) -> list[str]:
     if d.hue:
         lines.append(f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)")
         hue = (f", hue={d.hue!r}, hue_order=sorted(v[{d.hue!r}].unique()), "
-               f"palette={palette_expr(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}")
+               f"palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}")
     size = "s=12" if (f is not None and f.distinct > 60) else "s=30"
     lines.append(f"sns.scatterplot(data=v, x={d.x!r}, y={vn!r}{hue}, {size}, linewidth=0, "
                  f"color={MAIN_COLOUR!r}, ax={c.ax})")
@@ -224,7 +234,7 @@ def _grouped_bar(c: Ctx) -> list[str]:
     else:
         lines.append(f"order = list(dict.fromkeys(v[{d.x!r}]))")
     lines.append(f"hues = list(dict.fromkeys(v[{d.hue!r}]))")
-    pal = palette_expr(c.f(d.hue).distinct, "len(hues)")
+    pal = c.palette(c.f(d.hue).distinct, "len(hues)")
     if d.horizontal:
         lines.append(f'sns.barplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=order, '
                      f'hue_order=hues, palette={pal}, orient="h", errorbar=None, ax={c.ax})')
@@ -257,7 +267,7 @@ def _stacked(c: Ctx, percent: bool) -> list[str]:
         if percent:
             lines.append("t = t.div(t.sum(axis=1), axis=0) * 100")
         lines.append("t.index = t.index.astype(str)")
-    pal = palette_expr(c.f(parts).distinct)
+    pal = c.palette(c.f(parts).distinct)
     lines += [f"colors = {pal}",
               "left = np.zeros(len(t))",
               "for i, (name, col) in enumerate(t.items()):",
@@ -279,7 +289,7 @@ def _stacked(c: Ctx, percent: bool) -> list[str]:
 def _pie(c: Ctx) -> list[str]:
     d = c.d
     return [f"v = {c.grouped([d.x])}.sort_values(ascending=False)",
-            f"colors = {palette_expr(c.f(d.x).distinct)}",
+            f"colors = {c.palette(c.f(d.x).distinct)}",
             f"{c.ax}.pie(v.values, labels=[str(k) for k in v.index], "
             "colors=[colors[i % len(colors)] for i in range(len(v))], startangle=90, "
             "counterclock=False, autopct=\"%.0f%%\", pctdistance=0.75, "
@@ -297,7 +307,7 @@ def _line(c: Ctx, area: bool = False) -> list[str]:
                 f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)",
                 f"hues = sorted(v[{d.hue!r}].unique())",
                 f"sns.lineplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, hue_order=hues, "
-                f"palette={palette_expr(c.f(d.hue).distinct, 'len(hues)')}, errorbar=None, ax={c.ax})",
+                f"palette={c.palette(c.f(d.hue).distinct, 'len(hues)')}, errorbar=None, ax={c.ax})",
                 f'{c.ax}.legend(title={short(d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)',
                 ] + _labels(c, d.x, c.measure_label()) + _style(c, "y")
     lines = [f"v = {c.grouped([d.x])}"]
@@ -327,7 +337,7 @@ def _slope(c: Ctx) -> list[str]:
     d = c.d
     period, group = (d.x, d.hue)
     return [f"t = {c.grouped([group, period])}.unstack({period!r}).dropna()",
-            f"colors = {palette_expr(c.f(group).distinct)}",
+            f"colors = {c.palette(c.f(group).distinct)}",
             "for i, (name, row) in enumerate(t.iterrows()):",
             f"    {c.ax}.plot([0, 1], row.values, marker=\"o\", color=colors[i % len(colors)])",
             f"    {c.ax}.annotate(str(name)[:18], (1, row.values[1]), xytext=(5, 0), "
@@ -354,11 +364,11 @@ def _heatmap(c: Ctx) -> list[str]:
     d = c.d
     if d.task == "correlate":
         if c.f(d.x) and c.f(d.x).level == "quantitative":
-            return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, bins=25, cmap={SEQUENTIAL_CMAP!r}, "
+            return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, bins=25, cmap={c.cmap()}, "
                     f"cbar=True, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                     ] + _labels(c, d.x, d.y) + _style(c, None)
         return [f"t = pd.crosstab({c.data}[{d.y!r}], {c.data}[{d.x!r}])",
-                f"sns.heatmap(t, cmap={SEQUENTIAL_CMAP!r}, annot=t.size <= 80, fmt=\"d\", "
+                f"sns.heatmap(t, cmap={c.cmap()}, annot=t.size <= 80, fmt=\"d\", "
                 f"linewidths=0.5, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                 ] + _labels(c, d.x, d.y)
     rows, cols = (d.hue, d.x) if d.task == "trend" else (d.x, d.hue)
@@ -369,7 +379,7 @@ def _heatmap(c: Ctx) -> list[str]:
         lines.append("t = t / t.sum() * 100")
     f = c.f(d.y) if d.y else None
     signed = f is not None and f.signed
-    cmap = f"cmap={DIVERGING_CMAP!r}, center=0" if signed else f"cmap={SEQUENTIAL_CMAP!r}"
+    cmap = f"cmap={c.cmap(DIVERGING_CMAP)}, center=0" if signed else f"cmap={c.cmap()}"
     lines += ["t.index = t.index.astype(str)",
               "t.columns = t.columns.astype(str)",
               f"sns.heatmap(t, {cmap}, annot=t.size <= 60, fmt=\".3g\" if t.abs().max().max() < 1000 "
@@ -384,7 +394,7 @@ def _scatter(c: Ctx) -> list[str]:
     hue = ""
     if d.hue:
         hue = (f", hue={c.data}[{d.hue!r}].astype(str), hue_order=sorted({c.data}[{d.hue!r}].astype(str).unique()), "
-               f"palette={palette_expr(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
+               f"palette={c.palette(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
     lines = [f"alpha = 1.0 if len({c.data}) <= 300 else max(0.15, (300 / len({c.data})) ** 0.5)",
              f"sns.scatterplot(x={c.data}[{d.x!r}], y={c.data}[{d.y!r}]{hue}, s=36, alpha=alpha, "
              f"color={MAIN_COLOUR!r}, linewidth=0, ax={c.ax})"]
@@ -406,7 +416,7 @@ def _regression(c: Ctx) -> list[str]:
     d = c.d
     ci = f"ci=None if len({c.data}) > 2000 else 95"
     if d.hue:
-        return [f"colors = {palette_expr(c.f(d.hue).distinct)}",
+        return [f"colors = {c.palette(c.f(d.hue).distinct)}",
                 f"for i, (name, part) in enumerate({c.data}.groupby({d.hue!r}, observed=True)):",
                 f"    sns.regplot(data=part, x={d.x!r}, y={d.y!r}, {ci}, color=colors[i % len(colors)], "
                 f"scatter_kws={{\"s\": 16, \"alpha\": 0.5}}, label=str(name), ax={c.ax})",
@@ -422,7 +432,7 @@ def _hexbin(c: Ctx) -> list[str]:
     scales = "".join(f', {a}scale="log"' for a, col in (("x", d.x), ("y", d.y))
                      if col in d.options.get("log_columns", ()))
     return [f"hb = {c.ax}.hexbin({c.data}[{d.x!r}], {c.data}[{d.y!r}], gridsize=30, mincnt=1, "
-            f"cmap={SEQUENTIAL_CMAP!r}{scales})",
+            f"cmap={c.cmap()}{scales})",
             f'{c.ax}.figure.colorbar(hb, ax={c.ax}, label="rows")',
             ] + _labels(c, d.x, d.y) + _style(c, None)
 
@@ -432,7 +442,7 @@ def _hue_args(c: Ctx) -> str:
     if not d.hue:
         return f", color={MAIN_COLOUR!r}"
     return (f", hue={d.hue!r}, hue_order=sorted({c.data}[{d.hue!r}].unique(), key=str), "
-            f"palette={palette_expr(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
+            f"palette={c.palette(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
 
 
 def _log_arg(c: Ctx) -> str:
@@ -516,7 +526,7 @@ def _count_bar(c: Ctx) -> list[str]:
                 else f"order = list({c.data}[{d.x!r}].value_counts().index)",
                 f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
                 f"sns.barplot(data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, order=[str(o) for o in order], "
-                f"hue_order=sorted(v[{d.hue!r}].unique()), palette={palette_expr(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
+                f"hue_order=sorted(v[{d.hue!r}].unique()), palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
                 f"errorbar=None, ax={c.ax})",
                 ] + _labels(c, d.x, "number of rows") + _style(c, "y")
     if f.level == "nominal":

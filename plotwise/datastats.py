@@ -13,6 +13,13 @@ from .profile import Profile
 from .rules import PANEL_DPI, PANEL_SIZE_IN, SCATTER_MARKER_AREA_PT2, THRESHOLDS
 
 
+def skewed(f) -> bool:
+    """Positive data with a heavy right tail: drawn and analysed on a log scale."""
+    return (f is not None and f.level == "quantitative" and f.skew is not None
+            and f.minimum is not None and f.minimum > 0 and f.skew > THRESHOLDS["skew_log"]
+            and f.maximum / f.minimum >= THRESHOLDS["skew_span"])
+
+
 def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.DataFrame:
     """The used columns under their string labels, with dates parsed, durations in seconds and
     infinities as missing. Rows with any missing value are kept (callers drop as they need)."""
@@ -129,12 +136,30 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
         if y and task != "trend":
             sizes = used.groupby(x, observed=True).size()
             out["min_group_n"] = int(sizes.min()) if len(sizes) else 0
-            out["mean_gap"] = mean_gap(used, x, y)
+            binary = bool(used[y].isin([0, 1]).all())
+            out["mean_gap"] = None if binary else mean_gap(used, x, y)
+    if hue:
+        out["hue_labels"] = sorted(used[hue].astype(str).unique())
     if task == "trend" and x and pd.api.types.is_datetime64_any_dtype(used[x].dtype):
         t = pd.Series(used[x].unique()).sort_values()
         steps = t.diff().dropna()
         if len(steps) >= 2:
             out["time_gaps"] = int((steps > 1.5 * steps.median()).sum())
+    measure = y if task == "compare" else (x if task == "distribution" else None)
+    if measure and profile.fields[measure].level == "quantitative" and not profile.fields[measure].is_discrete:
+        from .shape import bin_rule_shapes, kde_modes
+
+        log = skewed(profile.fields[measure])
+        out["modes"] = kde_modes(used[measure].to_numpy(dtype=float), log=log)
+        if task == "distribution":
+            out["bin_shapes"] = bin_rule_shapes(used[measure].to_numpy(dtype=float), log=log)
+    if y and profile.fields.get(y) is not None and profile.fields[y].level == "quantitative":
+        yv = used[y]
+        out["binary_y"] = bool(len(yv) and yv.isin([0, 1]).all())
+    if hue and task == "compare" and y:
+        from .association import rate_reversal
+
+        out["reversal"] = rate_reversal(used, x, y, hue)
     if task == "distribution":
         if hue:
             sizes = used.groupby(hue, observed=True).size()
@@ -148,6 +173,18 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
         out["hidden_share"] = hidden_share(xv, yv)
         if len(xv) > 2 and np.std(xv) > 0 and np.std(yv) > 0:
             out["pearson"] = float(np.corrcoef(xv, yv)[0, 1])
+        from .association import correlation_reversal, fit_summary, most_influential
+
+        sample = used if len(used) <= 20000 else used.sample(20000, random_state=0)
+        out["fit"] = fit_summary(sample[x].to_numpy(dtype=float), sample[y].to_numpy(dtype=float))
+        infl = most_influential(sample[x].to_numpy(dtype=float), sample[y].to_numpy(dtype=float))
+        out["influence"] = infl
+        if infl is not None:
+            row = sample.iloc[infl.index]
+            out["influence_row"] = (f"at position {sample.index[infl.index]} "
+                                    f"({x} = {row[x]:.4g}, {y} = {row[y]:.4g})")
+        if hue:
+            out["reversal"] = correlation_reversal(used, x, y, hue)
     if task == "compare" and x and y and profile.fields.get(y) is not None:
         # Strip plots draw every point along the category axis.
         xs = used[x].astype("category").cat.codes.to_numpy(dtype=float)

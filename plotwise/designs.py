@@ -258,7 +258,7 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
 
     elif task == "correlate":
         nums = [c for c in profile.fields.values()
-                if c.label not in {hue} and is_measure(c) and c.distinct > 2]
+                if c.label not in {hue} and is_measure(c) and c.distinct >= 2]
         if r.x is None or r.y is None:
             pool = [c for c in nums if c.label not in given]
             need = (r.x is None) + (r.y is None)
@@ -333,6 +333,8 @@ def _measure_stat(profile: Profile, x: str, y: str | None, task: str, agg: str |
     if task == "proportion":
         return "sum"
     m = profile.fields[y]
+    if m.minimum is not None and m.minimum >= 0 and m.maximum <= 1 and m.distinct <= 2:
+        return "mean"  # a 0/1 outcome: its mean is a rate
     if profile.rows <= profile.fields[x].distinct:
         return "value"  # one row per category: draw the value itself
     if m.zero_meaningful and not m.share_like and _has_hint(y, SUM_NAME_HINTS):

@@ -114,6 +114,9 @@ THRESHOLDS = {
     "few_points": 20,
     # Sample skewness above this on positive data suggests a log axis (common practice).
     "skew_log": 2.0,
+    # ...and only when the values span at least this ratio (largest / smallest), so a log axis
+    # has orders of magnitude to spread out (common practice).
+    "skew_span": 10.0,
     # Share of points hidden under others at the drawn marker size: warn / severe (common practice).
     "overplot_warn": 0.25,
     "overplot_severe": 0.6,
@@ -140,6 +143,28 @@ THRESHOLDS = {
     "scatter_max_points": 5000,
     # Small multiples: at most this many panels (common practice).
     "max_facets": 12,
+    # Two palette colours closer than this CAM02-UCS ΔE, for normal or simulated colour-vision
+    # deficient sight, are hard to tell apart as series (common practice; Okabe & Ito's palette
+    # stays above 11 under all three simulations at full severity, tab10 falls to 1.6).
+    "cvd_delta_e": 8.0,
+    # A diverging colormap's two halves match in lightness: mean |J'(t) - J'(1-t)| below this
+    # (our own rule; seaborn's vlag 0.4, matplotlib's RdBu 2.6, turbo far above).
+    "diverging_asymmetry": 5.0,
+    # A density peak counts as a mode when its prominence is at least this share of the highest
+    # density (Gaussian KDE, Silverman 1986 bandwidth; our own documented threshold).
+    "mode_prominence": 0.1,
+    # A histogram bar counts as a peak when it stands this share of the tallest bar above its
+    # surroundings (our own documented threshold).
+    "bin_peak_prominence": 0.15,
+    # A quadratic fit that explains this much more variance than a line: the relation curves
+    # (common practice).
+    "curve_r2_gain": 0.05,
+    # |Spearman ρ| this much above |Pearson r|: monotone but not straight (common practice).
+    "monotone_gap": 0.1,
+    # Cook's distance above 1 marks an influential point (Cook & Weisberg 1982, from memory).
+    "cooks_d": 1.0,
+    # A point with leverage at least this fixes the fitted slope by itself (common practice).
+    "leverage_alone": 0.9,
     # Values whose spread is under this fraction of their magnitude are bunched far from zero:
     # bars from zero would hide the differences, a dot plot shows them (common practice).
     "bunched_spread": 0.1,

@@ -173,6 +173,21 @@ def data_fit(design: Design, profile: Profile, stats: dict) -> tuple[float, list
     if kind in ("box", "strip", "violin") and design.task == "compare" and gap is not None \
             and gap["d"] < T["hidden_spread_d"]:
         why.append("the groups overlap heavily: showing each group's spread is the honest view")
+    modes = stats.get("modes", 1)
+    if modes >= 2 and (kind == "box" or (kind in ("bar", "dot", "grouped-bar") and design.stat == "mean")):
+        penalise(0.6 if kind == "box" else 0.75,
+                 f"the values have {modes} modes, which a {'box' if kind == 'box' else 'chart of averages'} "
+                 "hides")
+    if modes >= 2 and kind in ("histogram", "density", "strip", "violin", "ecdf"):
+        why.append(f"shows the {modes} modes of the values")
+    if kind == "regression":
+        from .association import nonlinear_reason
+
+        summary, infl = stats.get("fit"), stats.get("influence")
+        if infl is not None and (infl.cooks_d > T["cooks_d"] or infl.leverage >= T["leverage_alone"]):
+            penalise(0.6, "one point drives the fitted line (see influential-point)")
+        elif summary is not None and nonlinear_reason(summary):
+            penalise(0.6, "a straight line misdescribes a curved relation (see nonlinear)")
     if kind == "pie":
         if ncat > T["pie_max_parts"]:
             penalise(0.4, f"{ncat} slices: angles beyond about {T['pie_max_parts']} parts are "

@@ -1,0 +1,137 @@
+"""Colour science for the engine: which colour scheme fits the data, whether a palette's colours
+stay distinct under colour-vision deficiency, and whether a colormap's lightness is monotonic.
+
+Simulation of colour-vision deficiency follows Machado, Oliveira & Fernandes (2009) as
+implemented by the colorspacious library; distances are CAM02-UCS ΔE (colorspacious.deltaE)."""
+
+from __future__ import annotations
+
+import itertools
+from dataclasses import dataclass
+
+import numpy as np
+
+from .errors import PlotwiseError
+from .rules import DIVERGING_CMAP, OKABE_ITO, SEQUENTIAL_CMAP, THRESHOLDS
+
+CVD_TYPES = {"protanomaly": "protan (red-weak)", "deuteranomaly": "deutan (green-weak)",
+             "tritanomaly": "tritan (blue-weak)"}
+
+
+def to_rgb_array(colours) -> np.ndarray:
+    from matplotlib.colors import to_rgb
+
+    try:
+        return np.array([to_rgb(c) for c in colours], dtype=float)
+    except ValueError as exc:
+        raise PlotwiseError(f"palette: {exc}; give colours as names or hex codes, e.g. "
+                            "['#0072B2', '#E69F00'].") from None
+
+
+@dataclass
+class Confusion:
+    delta_e: float
+    pair: tuple[str, str]
+    vision: str  # "normal" or one of CVD_TYPES
+    index: tuple[int, int] = (0, 0)
+
+
+def closest_pair(colours, cvd: str | None = None, severity: int = 100) -> Confusion:
+    """The two colours that look most alike (smallest CAM02-UCS ΔE), optionally as seen with
+    a simulated colour-vision deficiency at the given severity (0-100)."""
+    import colorspacious as cs
+
+    rgb = to_rgb_array(colours)
+    if cvd:
+        space = {"name": "sRGB1+CVD", "cvd_type": cvd, "severity": severity}
+        rgb = np.clip(cs.cspace_convert(rgb, space, "sRGB1"), 0, 1)
+    best = Confusion(float("inf"), ("", ""), cvd or "normal")
+    for i, j in itertools.combinations(range(len(rgb)), 2):
+        d = float(cs.deltaE(rgb[i], rgb[j], input_space="sRGB1"))
+        if d < best.delta_e:
+            best = Confusion(d, (str(colours[i]), str(colours[j])), cvd or "normal", (i, j))
+    return best
+
+
+def worst_confusion(colours) -> Confusion | None:
+    """Over normal vision and the three simulated deficiencies, the closest pair of colours."""
+    if len(colours) < 2:
+        return None
+    found = [closest_pair(colours, cvd) for cvd in (None, *CVD_TYPES)]
+    return min(found, key=lambda c: c.delta_e)
+
+
+def resolve_cmap(cmap):
+    """A matplotlib Colormap from a name (matplotlib's or seaborn's) or a Colormap object."""
+    import matplotlib as mpl
+    from matplotlib.colors import Colormap
+
+    if isinstance(cmap, Colormap):
+        return cmap
+    if isinstance(cmap, str):
+        if cmap in mpl.colormaps:
+            return mpl.colormaps[cmap]
+        try:
+            import seaborn as sns
+
+            return sns.color_palette(cmap, as_cmap=True)
+        except (ValueError, TypeError):
+            pass
+    raise PlotwiseError(f"colormap {cmap!r} is not a matplotlib or seaborn colormap name; try "
+                        f"'{SEQUENTIAL_CMAP}' (sequential) or '{DIVERGING_CMAP}' (diverging).")
+
+
+def lightness(cmap, n: int = 256) -> np.ndarray:
+    """CAM02-UCS lightness J′ along the colormap."""
+    import colorspacious as cs
+
+    rgb = resolve_cmap(cmap)(np.linspace(0, 1, n))[:, :3]
+    return cs.cspace_convert(rgb, "sRGB1", "CAM02-UCS")[:, 0]
+
+
+@dataclass
+class LightnessProfile:
+    kind: str  # sequential | diverging | non-monotonic
+    turns: int
+    start: float
+    end: float
+    extreme_at: float | None
+    asymmetry: float
+
+
+def lightness_profile(cmap) -> LightnessProfile:
+    """Classify a colormap by its lightness: monotonic (sequential), one turn in the middle with
+    matched halves (diverging), or rising and falling (non-monotonic, like a rainbow).
+
+    Lightness is smoothed over 9 of 256 steps before its turns are counted (our own rule)."""
+    J = lightness(cmap)
+    smooth = np.convolve(J, np.ones(9) / 9, mode="valid")
+    steps = np.sign(np.diff(smooth))
+    steps = steps[steps != 0]
+    turns = np.nonzero(np.diff(steps))[0]
+    asym = float(np.mean(np.abs(J - J[::-1])))
+    at = float((turns[0] + 4) / (len(J) - 1)) if len(turns) else None
+    if len(turns) == 0:
+        kind = "sequential"
+    elif (len(turns) == 1 and 0.4 <= at <= 0.6 and asym < THRESHOLDS["diverging_asymmetry"]
+          and abs(J[0] - J[-1]) < THRESHOLDS["diverging_asymmetry"]):
+        kind = "diverging"
+    else:
+        kind = "non-monotonic"
+    return LightnessProfile(kind, len(turns), float(J[0]), float(J[-1]), at, asym)
+
+
+def scheme_for(level: str, signed: bool = False, n_levels: int = 0) -> tuple[str, str]:
+    """Which colour scheme the data wants, and why, in one sentence."""
+    if level in ("nominal",):
+        return ("categorical", f"categorical colours (Okabe & Ito 2008, safe for colour-vision "
+                f"deficiencies) for {n_levels} unordered groups")
+    if signed:
+        return ("diverging", f"diverging colormap '{DIVERGING_CMAP}' centred on zero: the values "
+                "are signed, so zero is a meaningful midpoint")
+    return ("sequential", f"sequential colormap '{SEQUENTIAL_CMAP}': lightness rises steadily with "
+            "the value (perceptually uniform; Smith & van der Walt 2015)")
+
+
+def default_palette(n: int) -> list[str]:
+    return list(OKABE_ITO[:n])
