@@ -13,7 +13,7 @@ from .designs import Design, candidates, choose_roles
 from .errors import PlotwiseError
 from .hazards import SEVERITIES, Hazard, HazardContext, run_checks
 from .profile import FieldProfile, Profile, profile_frame
-from .rules import TASKS, THRESHOLDS
+from .rules import TASKS
 from .scoring import rank, score_design
 
 # Kinds that draw raw values on a position axis and so can take a log axis for skewed data.
@@ -32,6 +32,7 @@ class Advice:
     notes: list[str] = field(default_factory=list)
     top: int = 3
     request: dict = field(default_factory=dict)  # the arguments advise() was called with
+    headline: str | None = None  # one sentence, when a single number says it better than a chart
     _df: pd.DataFrame | None = field(default=None, repr=False, compare=False)
 
     @property
@@ -170,6 +171,17 @@ def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
             d.stat = "value"
 
 
+def _strongest_pairs(df, profile: Profile, cols: list[str], k: int = 3) -> str:
+    w = working_frame(df, profile, cols)
+    corr = w.corr()
+    pairs = sorted(((abs(corr.iloc[i, j]), cols[i], cols[j], corr.iloc[i, j])
+                    for i in range(len(cols)) for j in range(i + 1, len(cols))
+                    if corr.iloc[i, j] == corr.iloc[i, j]), reverse=True)[:k]
+    named = "; ".join(f"'{a}' & '{b}' r = {r:+.2f}" for _, a, b, r in pairs)
+    return (f"all {len(cols) * (len(cols) - 1) // 2} pairs of {len(cols)} numeric columns in one view; "
+            f"strongest: {named}")
+
+
 def _colour_reason(d: Design, profile: Profile) -> str | None:
     from .colour import scheme_for
 
@@ -233,6 +245,8 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
         if d.kind == "histogram" and bins is not None:
             d.options["bins"] = bins[0]
             extra_reasons.setdefault(id(d), []).append(bins[1])
+        if d.options.get("matrix"):
+            extra_reasons.setdefault(id(d), []).append(_strongest_pairs(df, profile, d.options["matrix"]))
         colour = _colour_reason(d, profile)
         if colour:
             extra_reasons.setdefault(id(d), []).append(colour)
@@ -243,9 +257,35 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
     ctx = HazardContext(df=df, profile=profile, task=task, x=roles.x, y=roles.y, hue=roles.hue,
                         stat=stat, stats=stats, value_range=value_range, palette=palette, cmap=cmap,
                         working=working_frame(df, profile, [c for c in dict.fromkeys(
-                            [roles.x, roles.y, roles.hue]) if c]))
+                            [roles.x, roles.y, roles.hue, roles.period]) if c]))
     wide = run_checks(ctx, designs)
-    return designs, wide, roles.notes
+    return designs, wide, roles.notes, _headline(ctx, roles, designs)
+
+
+def _headline(ctx: HazardContext, roles, designs: list[Design]) -> str | None:
+    from .headline import change_headline, compare_headline, proportion_headline
+    from .scoring import STAT_WORDS
+
+    f = ctx.profile.fields
+    share_like = bool(ctx.y and f[ctx.y].share_like)
+    if roles.period and ctx.y:
+        group = ctx.hue if roles.period == ctx.x else ctx.x
+        if group and group != roles.period:
+            return change_headline(ctx.working, group, roles.period, ctx.y, ctx.stat, share_like)
+    vals = ctx.stats.get("values")
+    if vals is None or ctx.hue:
+        return None
+    total = ctx.stats.get("share_total")
+    if ctx.task == "proportion" and not (total and not total["adds_up"]):
+        return proportion_headline(vals, ctx.y, share_like)
+    if ctx.task == "proportion":  # shares of several answers: the largest, not a part of a whole
+        top = vals.idxmax()
+        return (f"'{top}' has the largest '{ctx.y}': {float(vals.max()):.1f}% (the shares add "
+                f"to {total['sum']:.4g}%, so they are not parts of one whole).")
+    if ctx.task == "compare":
+        word = "" if ctx.stat == "value" else STAT_WORDS.get(ctx.stat, "")
+        return compare_headline(vals, ctx.y, word)
+    return None
 
 
 def _distinct(designs: list[Design]) -> list[Design]:
@@ -311,15 +351,17 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     wide: list[tuple[str, Hazard]] = []
     notes: list[str] = []
     errors = []
+    headlines: dict[str, str | None] = {}
     for t in tasks:
         try:
-            ds, hz, nt = _advise_task(df, profile, t, x, y, hue, agg, value_range, palette, cmap)
+            ds, hz, nt, hl = _advise_task(df, profile, t, x, y, hue, agg, value_range, palette, cmap)
         except PlotwiseError as exc:
             if task:
                 raise
             errors.append(f"{t}: {exc}")
             continue
         designs += ds
+        headlines[t] = hl
         wide += [(t, h) for h in hz]
         notes += [f"{t}: {n}" if not task else n for n in nt]
     if not designs:
@@ -343,5 +385,6 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     hazards.sort(key=lambda h: -SEVERITIES.index(h.severity))
     request = {"task": task, "x": x, "y": y, "hue": hue, "agg": agg, "value_range": value_range,
                "palette": palette, "cmap": cmap}
+    headline = headlines.get(task if task else shown[0].task)
     return Advice(task=task, profile=profile, designs=ranked, hazards=hazards, notes=notes,
-                  top=top, request=request, _df=df)
+                  top=top, request=request, headline=headline, _df=df)

@@ -360,8 +360,20 @@ def _difference_bar(c: Ctx) -> list[str]:
             ] + _style(c, "x")
 
 
+def _correlation_matrix(c: Ctx) -> list[str]:
+    """Pearson correlations of every pair (pairwise complete rows), diverging colormap centred on
+    zero, strongest colour at ±1."""
+    return [f"corr = {c.data}.corr()",
+            f"sns.heatmap(corr, cmap={c.cmap(DIVERGING_CMAP)}, center=0, vmin=-1, vmax=1, "
+            "annot=len(corr) <= 8, fmt=\".2f\", annot_kws={\"fontsize\": 7}, square=True, "
+            f"linewidths=0.5, cbar_kws={{\"label\": \"Pearson r\"}}, ax={c.ax})",
+            f"{c.ax}.tick_params(labelsize=7)"]
+
+
 def _heatmap(c: Ctx) -> list[str]:
     d = c.d
+    if d.options.get("matrix"):
+        return _correlation_matrix(c)
     if d.task == "correlate":
         if c.f(d.x) and c.f(d.x).level == "quantitative":
             return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, bins=25, cmap={c.cmap()}, "
@@ -557,7 +569,9 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     """Build ``d``: the used columns under their labels, converted, missing rows dropped."""
     items = ", ".join(f"{label!r}: {column_expr(profile.fields[label], frame)}"
                       for label in design.columns)
-    lines = [f"d = pd.DataFrame({{{items}}}).dropna()"]
+    # A correlation matrix uses every pairwise-complete row; other designs drop incomplete rows.
+    drop = "" if design.options.get("matrix") else ".dropna()"
+    lines = [f"d = pd.DataFrame({{{items}}}){drop}"]
     if design.options.get("log_columns"):
         for col in design.options["log_columns"]:
             lines.append(f"d = d[d[{col!r}] > 0]")

@@ -35,6 +35,8 @@ def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.
                 s = pd.to_datetime(s, errors="coerce", format="ISO8601")
         elif f.is_timedelta:
             s = s.dt.total_seconds()
+        elif f.level == "temporal" and f.is_integer:  # integer years: 2024, not 2024.0
+            s = pd.to_numeric(s, errors="coerce").round().astype("Int64")
         elif f.level in ("quantitative", "temporal") and pd.api.types.is_numeric_dtype(s.dtype) \
                 and not pd.api.types.is_bool_dtype(s.dtype):
             s = pd.to_numeric(s, errors="coerce").astype("float64").replace([np.inf, -np.inf], np.nan)

@@ -59,7 +59,7 @@ class Design:
 
     @property
     def columns(self) -> list[str]:
-        cols = []
+        cols = list(self.options.get("matrix", ()))
         for c in (self.x, self.y, self.hue, self.facet):
             if c is not None and c not in cols:
                 cols.append(c)
@@ -88,6 +88,7 @@ class Roles:
     y: str | None = None
     hue: str | None = None
     period: str | None = None  # a column with exactly two time points, for slope designs
+    matrix: list[str] = field(default_factory=list)  # numeric columns for a correlation matrix
     notes: list[str] = field(default_factory=list)
 
 
@@ -275,6 +276,8 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
                 )
             pair = strongest_pair(df, profile, [c.label for c in pool]) if (
                 need == 2 and df is not None and len(pool) > 2) else None
+            if need == 2 and len(pool) > 2:
+                r.matrix = [c.label for c in pool[:12]]
             if pair is not None:
                 r.x, r.y = pair[0], pair[1]
                 r.notes.append(f"variables: '{r.x}' and '{r.y}', the most strongly associated "
@@ -524,7 +527,13 @@ def _correlate(profile: Profile, r: Roles, agg) -> list[Design]:
     if hue:
         roles["hue"] = hue
         enc_hue = {"hue": hue}
-    out = [
+    out = []
+    if len(r.matrix) > 2:
+        out.append(Design("heatmap", "correlate", {"x position": "columns", "y position": "columns",
+                                                   "lightness": "correlation"},
+                          {"measure": "correlation", "category": "columns"},
+                          stat="correlation", options={"matrix": list(r.matrix)}))
+    out += [
         Design("scatter", "correlate", {"x position": x, "y position": y, **enc_hue}, dict(roles),
                x=x, y=y, hue=hue),
         Design("regression", "correlate", {"x position": x, "y position": y, **enc_hue},

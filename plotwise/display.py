@@ -28,6 +28,8 @@ def advice_text(advice: Advice, limit: int | None = None) -> str:
              f"{len(advice.profile.fields)} columns"]
     for n in advice.notes:
         lines.append(f"  chosen: {n}")
+    if advice.headline:
+        lines.append(f"  in one sentence: {advice.headline}")
     lines.append("")
     lines.append("Ranked designs:")
     for i, d in enumerate(advice.designs[:limit] if limit else advice.designs, 1):
@@ -98,6 +100,8 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
              f"({advice.profile.rows} rows, {len(advice.profile.fields)} columns)</h4>"]
     if advice.notes:
         parts.append("<p>Chosen: " + "; ".join(_e(n) for n in advice.notes) + "</p>")
+    if advice.headline:
+        parts.append(f"<p class='pw-headline'><b>In one sentence:</b> {_e(advice.headline)}</p>")
     if image:
         if png is None:
             png = figure_png(advice.show())

@@ -331,6 +331,8 @@ def _headline(design: Design, profile: Profile) -> str:
         return f"slope chart: {measure} at the two values of '{x}', one line per '{design.hue}'"
     if k == "difference-bar":
         return f"change in {measure} between the two values of '{design.hue}', per '{x}'"
+    if k == "heatmap" and design.options.get("matrix"):
+        return f"correlation matrix of {len(design.options['matrix'])} numeric columns"
     if k == "heatmap":
         if design.task == "correlate":
             return f"heatmap of counts over '{x}' × '{y}'"

@@ -1,0 +1,67 @@
+"""A one-sentence headline computed from the data, offered when a single number says it better
+than a chart: the biggest share, the biggest and smallest value, the biggest change between two
+time points. Percentages of a whole change in percentage points, never in percent."""
+
+from __future__ import annotations
+
+import pandas as pd
+
+from .datastats import aggregate
+
+
+def fmt(v: float) -> str:
+    a = abs(v)
+    if a >= 1000:
+        return f"{v:,.0f}"
+    if a >= 10:
+        return f"{v:,.1f}".rstrip("0").rstrip(".")
+    return f"{v:.3g}"
+
+
+def pct(v: float) -> str:
+    return f"{v:.1f}%"
+
+
+def proportion_headline(vals: pd.Series, y: str | None, share_like: bool) -> str | None:
+    if len(vals) < 2 or (vals < 0).any():
+        return None
+    total = float(vals.sum())
+    if total <= 0:
+        return None
+    top = vals.idxmax()
+    share = float(vals.max()) / total * 100
+    what = f"'{y}'" if y else "rows"
+    if share_like and abs(total - 100) <= 0.5 * len(vals):
+        return f"'{top}' is the largest part: {pct(float(vals.max()))} of the whole ({what} as given)."
+    return (f"'{top}' is the largest part: {fmt(float(vals.max()))} of {fmt(total)} "
+            f"{what} in all, {pct(share)} of the whole.")
+
+
+def compare_headline(vals: pd.Series, y: str | None, stat_word: str) -> str | None:
+    if len(vals) < 2:
+        return None
+    hi, lo = vals.idxmax(), vals.idxmin()
+    vhi, vlo = float(vals.max()), float(vals.min())
+    what = f"{stat_word} '{y}'".strip() if y else "number of rows"
+    if vlo > 0:
+        return (f"'{hi}' has the highest {what} ({fmt(vhi)}), {vhi / vlo:.1f}× that of '{lo}', "
+                f"the lowest ({fmt(vlo)}).")
+    return (f"'{hi}' has the highest {what} ({fmt(vhi)}), {fmt(vhi - vlo)} more than '{lo}', "
+            f"the lowest ({fmt(vlo)}).")
+
+
+def change_headline(w: pd.DataFrame, group: str, period: str, y: str, stat: str,
+                    share_like: bool) -> str | None:
+    t = aggregate(w, [group, period], y, stat).unstack(period).dropna()
+    if t.shape[1] != 2 or len(t) == 0:
+        return None
+    first, second = t.columns
+    change = t[second] - t[first]
+    g = change.abs().idxmax()
+    a, b, c = float(t.loc[g, first]), float(t.loc[g, second]), float(change[g])
+    if share_like:
+        return (f"'{g}' changed most: '{y}' went from {pct(a)} to {pct(b)} between {first} and "
+                f"{second} ({c:+.1f} percentage points).")
+    rel = f", {c / a:+.1%}" if a > 0 else ""
+    return (f"'{g}' changed most: '{y}' went from {fmt(a)} to {fmt(b)} between {first} and "
+            f"{second} ({'+' if c >= 0 else '−'}{fmt(abs(c))}{rel}).")
