@@ -35,7 +35,7 @@ soak: $(STAMP)
 	$(BIN)/python -m pytest -q -s -m soak tests/test_soak.py
 
 lint: $(STAMP)
-	$(BIN)/ruff check plotwise tests tests_browser tools
+	$(BIN)/ruff check plotwise tests tests_browser tools benchmarks
 
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py

@@ -13,7 +13,7 @@ from .designs import Design, candidates, choose_roles
 from .errors import PlotwiseError
 from .hazards import SEVERITIES, Hazard, HazardContext, run_checks
 from .profile import FieldProfile, Profile, profile_frame
-from .rules import TASKS
+from .rules import TASKS, THRESHOLDS
 from .scoring import rank, score_design
 
 # Kinds that draw raw values on a position axis and so can take a log axis for skewed data.
@@ -157,6 +157,32 @@ def _check_range(value_range):
     return lo, hi
 
 
+def _large_data_options(d: Design, stats: dict) -> None:
+    """On large data, point designs draw a seeded sample and histograms are binned first; every
+    such panel says what it drew (a note on the panel and the `sampled` hazard)."""
+    from .rules import POINT_KINDS
+
+    n = stats.get("points", 0)
+    big, k = THRESHOLDS["draw_sample_above"], THRESHOLDS["draw_sample"]
+    if n <= big or d.options.get("matrix"):
+        return
+    if d.kind in POINT_KINDS or (d.kind == "histogram" and d.hue):
+        d.options["sample"] = (big, k)
+        d.options["note"] = f"random sample of {k:,} of {n:,} rows"
+    elif d.kind == "histogram":
+        d.options["prebin"] = True
+        d.options["note"] = f"all {n:,} rows, counted into bins first"
+    elif d.kind == "hexbin" or (d.kind == "heatmap" and d.task == "correlate"):
+        kb = THRESHOLDS["bin_sample"]
+        if n > kb:
+            d.options["sample"] = (kb, kb)
+            d.options["note"] = f"random sample of {kb:,} of {n:,} rows, counted into bins"
+        else:
+            d.options["note"] = f"all {n:,} rows, counted into bins"
+    else:
+        d.options["note"] = f"{'counts' if d.stat == 'count' else 'totals' if d.stat in ('sum', 'value') else 'averages'} of all {n:,} rows, computed before drawing"
+
+
 def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
     """Where each group holds one row, a design draws the value itself, not a total or mean."""
     unique: dict[tuple, bool] = {}
@@ -164,6 +190,11 @@ def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
         if d.stat not in ("sum", "mean") or d.y is None:
             continue
         keys = tuple(c for c in (d.x, d.hue, d.facet) if c)
+        combos = 1
+        for k in keys:
+            combos *= max(profile.fields[k].distinct, 1)
+        if profile.rows > combos:  # more rows than key combinations: some group has several
+            unique[keys] = False
         if keys not in unique:
             w = working_frame(df, profile, list(keys) + [d.y]).dropna()
             unique[keys] = not w.duplicated(subset=list(keys)).any()
@@ -211,7 +242,9 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
         if d.stat not in ("distribution", "raw", "difference"):
             stat = d.stat
             break
-    stats = design_stats(df, profile, task, roles.x, roles.y, roles.hue, stat)
+    working = working_frame(df, profile, [c for c in dict.fromkeys(
+        [roles.x, roles.y, roles.hue, roles.period]) if c])
+    stats = design_stats(df, profile, task, roles.x, roles.y, roles.hue, stat, w=working)
     if stats["points"] == 0:
         cols = ", ".join(repr(c) for c in dict.fromkeys([roles.x, roles.y, roles.hue]) if c)
         raise PlotwiseError(f"no row has values in all of {cols}; nothing to draw for {task}.")
@@ -223,8 +256,7 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
         cmap_name = resolve_cmap(cmap).name
     bins = None
     if task == "distribution" and profile.fields[roles.x].level == "quantitative":
-        w = working_frame(df, profile, [roles.x])
-        vals = w[roles.x].dropna().to_numpy(dtype=float)
+        vals = working[roles.x].dropna().to_numpy(dtype=float)
         bins = choose_bins(vals, log=skewed(profile.fields[roles.x]))
     for d in designs:
         d.profile = profile
@@ -240,6 +272,7 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
                 extra_reasons[id(d)] = [
                     f"log axis for {', '.join(repr(c) for c in logs)}: right-skewed (skewness "
                     f"{profile.fields[logs[0]].skew:.1f}), so equal steps mean equal ratios"]
+        _large_data_options(d, stats)
         if d.kind in ("line", "area") and stats.get("time_gaps"):
             d.options["break_gaps"] = True
         if d.kind == "histogram" and bins is not None:
@@ -256,8 +289,7 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
             d.reasons.append("columns chosen by plotwise: " + "; ".join(roles.notes))
     ctx = HazardContext(df=df, profile=profile, task=task, x=roles.x, y=roles.y, hue=roles.hue,
                         stat=stat, stats=stats, value_range=value_range, palette=palette, cmap=cmap,
-                        working=working_frame(df, profile, [c for c in dict.fromkeys(
-                            [roles.x, roles.y, roles.hue, roles.period]) if c]))
+                        working=working)
     wide = run_checks(ctx, designs)
     return designs, wide, roles.notes, _headline(ctx, roles, designs)
 

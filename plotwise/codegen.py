@@ -461,9 +461,30 @@ def _log_arg(c: Ctx) -> str:
     return ", log_scale=True" if c.d.x in c.d.options.get("log_columns", ()) else ""
 
 
+def _prebinned_histogram(c: Ctx, rule) -> list[str]:
+    """Large data: numpy counts every value into the bins first, then only the bins are drawn."""
+    d = c.d
+    col = f"{c.data}[{d.x!r}]"
+    if _log_arg(c):
+        if isinstance(rule, int):
+            edges = f"np.logspace(np.log10({col}.min()), np.log10({col}.max()), {rule + 1})"
+        else:
+            edges = f"10 ** np.histogram_bin_edges(np.log10({col}), bins={rule!r})"
+    else:
+        edges = f"np.histogram_bin_edges({col}, bins={rule!r})"
+    lines = [f"counts, edges = np.histogram({col}, bins={edges})",
+             f"{c.ax}.stairs(counts, edges, fill=True, color={MAIN_COLOUR!r}, alpha=0.75)",
+             f"{c.ax}.set_ylim(bottom=0)"]
+    if _log_arg(c):
+        lines.append(f'{c.ax}.set_xscale("log")')
+    return lines + _labels(c, d.x, "number of rows") + _style(c, "y")
+
+
 def _histogram(c: Ctx) -> list[str]:
     d = c.d
     rule = d.options.get("bins", "fd")
+    if d.options.get("prebin") and not d.hue:
+        return _prebinned_histogram(c, rule)
     if _log_arg(c):
         bins = f"bins=len(np.histogram_bin_edges(np.log10({c.data}[{d.x!r}]), bins={rule!r})) - 1"
     else:
@@ -575,14 +596,26 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     if design.options.get("log_columns"):
         for col in design.options["log_columns"]:
             lines.append(f"d = d[d[{col!r}] > 0]")
+    if design.options.get("sample"):
+        big, k = design.options["sample"]
+        lines += [f"if len(d) > {big}:  # draw a seeded random sample of the rows",
+                  f"    d = d.iloc[np.sort(np.random.default_rng(0).choice(len(d), size={k}, replace=False))]"]
     return lines
+
+
+def note_lines(design: Design, ax: str = "ax") -> list[str]:
+    note = design.options.get("note")
+    if not note:
+        return []
+    return [f"{ax}.annotate({note!r}, xy=(1, 1.01), xycoords=\"axes fraction\", ha=\"right\", "
+            "va=\"bottom\", fontsize=7, color=\"#555555\")"]
 
 
 def body_lines(design: Design, profile: Profile, frame: str = "df") -> list[str]:
     """The drawing body: expects ``ax`` (a matplotlib Axes) and the caller's frame."""
     lines = working_lines(design, profile, frame)
     if design.facet is None:
-        return lines + GENERATORS[design.kind](Ctx(design, profile))
+        return lines + GENERATORS[design.kind](Ctx(design, profile)) + note_lines(design)
     f = design.facet
     lines += [f"groups = [k for k, part in d.groupby({f!r}, observed=True)]",
               "ncols = min(4, len(groups))",

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import itertools
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
@@ -57,7 +58,12 @@ def worst_confusion(colours) -> Confusion | None:
     """Over normal vision and the three simulated deficiencies, the closest pair of colours."""
     if len(colours) < 2:
         return None
-    found = [closest_pair(colours, cvd) for cvd in (None, *CVD_TYPES)]
+    return _worst(tuple(str(c) for c in colours))
+
+
+@lru_cache(maxsize=256)
+def _worst(colours: tuple[str, ...]) -> Confusion:
+    found = [closest_pair(list(colours), cvd) for cvd in (None, *CVD_TYPES)]
     return min(found, key=lambda c: c.delta_e)
 
 

@@ -116,15 +116,74 @@ def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False) -> float:
     return float(1.0 - occupied / n)
 
 
+def point_sample(used: pd.DataFrame, k: int | None = None) -> pd.DataFrame:
+    """The rows a point-drawing design shows: all of them, or a seeded sample of
+    THRESHOLDS['draw_sample'] rows above THRESHOLDS['draw_sample_above']."""
+    if len(used) <= THRESHOLDS["draw_sample_above"]:
+        return used
+    k = k or THRESHOLDS["draw_sample"]
+    take = np.sort(np.random.default_rng(0).choice(len(used), size=k, replace=False))
+    return used.iloc[take]
+
+
+def grouped(used: pd.DataFrame, x: str, y: str | None) -> dict:
+    """One hashing pass over the categories, then sums, counts and sums of squares per group
+    (numpy.bincount): totals and means are exact, spreads computed analytically."""
+    codes, uniques = pd.factorize(used[x], sort=True)
+    cnt = np.bincount(codes, minlength=len(uniques)).astype(float)
+    out = {"labels": uniques, "count": cnt}
+    if y is not None:
+        yv = used[y].to_numpy(dtype=float)
+        out["sum"] = np.bincount(codes, weights=yv, minlength=len(uniques))
+        out["sumsq"] = np.bincount(codes, weights=yv * yv, minlength=len(uniques))
+    out["codes"] = codes
+    return out
+
+
+def _gap_from_sums(g: dict) -> dict | None:
+    """mean_gap() from per-group sums (same result, no second grouping)."""
+    n, s, ss = g["count"], g["sum"], g["sumsq"]
+    ok = n > 1
+    if ok.sum() < 2:
+        return None
+    n, s, ss = n[ok], s[ok], ss[ok]
+    means = s / n
+    var = np.maximum((ss - n * means ** 2) / (n - 1), 0)
+    pooled = float(np.sqrt(((n - 1) * var).sum() / (n - 1).sum()))
+    if not pooled > 0:
+        return None
+    spread = float(means.max() - means.min())
+    return {"d": spread / pooled, "range": spread, "sd": pooled}
+
+
+def is_binary(f) -> bool:
+    """A 0/1 outcome (exact min and max from the profile)."""
+    return (f is not None and f.level == "quantitative" and f.minimum is not None
+            and f.minimum >= 0 and f.maximum <= 1 and f.is_integer and f.distinct <= 2)
+
+
 def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat: str,
-                 log_scale: bool = False) -> dict:
-    """The numbers the scorer's data-fit rules and the hazard checks read."""
+                 log_scale: bool = False, w: pd.DataFrame | None = None) -> dict:
+    """The numbers the scorer's data-fit rules and the hazard checks read. Totals, means, counts
+    and missing rows are exact; checks on individual points (overplotting, fits, modes, bin
+    shapes) use the same seeded sample the drawing uses on large frames."""
     cols = [c for c in dict.fromkeys([x, y, hue]) if c]
-    w = working_frame(df, profile, cols)
+    w = working_frame(df, profile, cols) if w is None else w[cols]
     used = w.dropna()
     out: dict = {"points": int(len(used)), "left_out": int(len(w) - len(used)), "rows": int(len(w))}
+    pts = point_sample(used)
+    out["sampled"] = len(pts) < len(used)
+    ym = y if (y and profile.fields[y].level == "quantitative") else None
     if task in ("compare", "proportion", "trend") and x:
-        vals = aggregate(w, [x], y, stat if task != "proportion" else ("sum" if y else "count"))
+        g = grouped(used, x, ym)
+        use = "sum" if task == "proportion" else stat
+        if ym is None or use == "count":
+            v = g["count"]
+        elif use == "mean":
+            v = g["sum"] / g["count"]
+        else:
+            v = g["sum"]
+        vals = pd.Series(v, index=g["labels"])
         out["values"] = vals
         if len(vals):
             vmax, vmin = float(vals.max()), float(vals.min())
@@ -133,15 +192,13 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
             total = float(vals.sum())
             if vmin >= 0 and total > 0:
                 out["min_share"] = vmin / total
-            if y and profile.fields[y].share_like and not hue:
+            if ym and profile.fields[ym].share_like and not hue:
                 out["share_total"] = share_total(total, len(vals))
-        if y and task != "trend":
-            sizes = used.groupby(x, observed=True).size()
-            out["min_group_n"] = int(sizes.min()) if len(sizes) else 0
-            binary = bool(used[y].isin([0, 1]).all())
-            out["mean_gap"] = None if binary else mean_gap(used, x, y)
+        if ym and task != "trend":
+            out["min_group_n"] = int(g["count"].min()) if len(g["count"]) else 0
+            out["mean_gap"] = None if is_binary(profile.fields[ym]) else _gap_from_sums(g)
     if hue:
-        out["hue_labels"] = sorted(used[hue].astype(str).unique())
+        out["hue_labels"] = sorted(str(v) for v in pd.unique(used[hue]))
     if task == "trend" and x and pd.api.types.is_datetime64_any_dtype(used[x].dtype):
         t = pd.Series(used[x].unique()).sort_values()
         steps = t.diff().dropna()
@@ -152,16 +209,19 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
         from .shape import bin_rule_shapes, kde_modes
 
         log = skewed(profile.fields[measure])
-        out["modes"] = kde_modes(used[measure].to_numpy(dtype=float), log=log)
+        values = used[measure].to_numpy(dtype=float)
+        out["modes"] = kde_modes(values, log=log)
         if task == "distribution":
-            out["bin_shapes"] = bin_rule_shapes(used[measure].to_numpy(dtype=float), log=log)
-    if y and profile.fields.get(y) is not None and profile.fields[y].level == "quantitative":
-        yv = used[y]
-        out["binary_y"] = bool(len(yv) and yv.isin([0, 1]).all())
-    if hue and task == "compare" and y:
+            k = THRESHOLDS["profile_sample"]
+            if len(values) > k:  # bin shapes from a seeded sample of the profile's size
+                values = values[np.random.default_rng(0).choice(len(values), k, replace=False)]
+            out["bin_shapes"] = bin_rule_shapes(values, log=log)
+    if ym:
+        out["binary_y"] = is_binary(profile.fields[ym])
+    if hue and task == "compare" and ym:
         from .association import rate_reversal
 
-        out["reversal"] = rate_reversal(used, x, y, hue)
+        out["reversal"] = rate_reversal(used, x, ym, hue)
     if task == "distribution":
         if hue:
             sizes = used.groupby(hue, observed=True).size()
@@ -170,28 +230,27 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
             out["min_group_n"] = int(len(used))
     if task == "correlate" and x and y and profile.fields[x].level == "quantitative" \
             and profile.fields[y].level == "quantitative":
-        xv = used[x].to_numpy(dtype=float)
-        yv = used[y].to_numpy(dtype=float)
+        xv = pts[x].to_numpy(dtype=float)
+        yv = pts[y].to_numpy(dtype=float)
         out["hidden_share"] = hidden_share(xv, yv)
         if len(xv) > 2 and np.std(xv) > 0 and np.std(yv) > 0:
             out["pearson"] = float(np.corrcoef(xv, yv)[0, 1])
         from .association import correlation_reversal, fit_summary, most_influential
 
-        sample = used if len(used) <= 20000 else used.sample(20000, random_state=0)
-        out["fit"] = fit_summary(sample[x].to_numpy(dtype=float), sample[y].to_numpy(dtype=float))
-        infl = most_influential(sample[x].to_numpy(dtype=float), sample[y].to_numpy(dtype=float))
+        out["fit"] = fit_summary(xv, yv)
+        infl = most_influential(xv, yv)
         out["influence"] = infl
         if infl is not None:
-            row = sample.iloc[infl.index]
-            out["influence_row"] = (f"at position {sample.index[infl.index]} "
+            row = pts.iloc[infl.index]
+            out["influence_row"] = (f"at position {pts.index[infl.index]} "
                                     f"({x} = {row[x]:.4g}, {y} = {row[y]:.4g})")
         if hue:
             out["reversal"] = correlation_reversal(used, x, y, hue)
-    if task == "compare" and x and y and profile.fields.get(y) is not None:
-        # Strip plots draw every point along the category axis.
-        xs = used[x].astype("category").cat.codes.to_numpy(dtype=float)
-        out["hidden_share"] = hidden_share(xs + np.random.default_rng(0).uniform(-.2, .2, len(xs)),
-                                           used[y].to_numpy(dtype=float))
+    if task == "compare" and x and ym:
+        # Strip plots draw every (sampled) point along the category axis.
+        codes = pd.factorize(pts[x], sort=True)[0].astype(float)
+        out["hidden_share"] = hidden_share(codes + np.random.default_rng(0).uniform(-.2, .2, len(codes)),
+                                           pts[ym].to_numpy(dtype=float))
     return out
 
 

@@ -468,6 +468,24 @@ def _reversal(ctx: HazardContext) -> list[Hazard]:
                    "which comparison answers the question", (), (ctx.x, ctx.y, ctx.hue))]
 
 
+@check("sampled", "a panel drawn from a sample or from pre-computed aggregates of a large frame",
+       per_design=True)
+def _sampled(ctx: HazardContext) -> list[Hazard]:
+    d = ctx.design
+    note = d.options.get("note")
+    if not note:
+        return []
+    if d.options.get("sample"):
+        msg = (f"the {d.kind} shows a seeded random sample of {d.options['sample'][1]:,} of the "
+               f"{ctx.stats.get('points', 0):,} rows (drawing every row would be slow and hide "
+               "points behind each other); its shape is representative, single points are not.")
+        fix = "filter to the rows you care about to see every point, or use the binned designs"
+    else:
+        msg = f"the {d.kind} is drawn from {note}: exact for every row."
+        fix = "nothing to fix; said so you know what the panel shows"
+    return [Hazard("sampled", "info", msg, fix, (d.kind,), tuple(c for c in d.columns))]
+
+
 def run_checks(ctx: HazardContext, designs: list[Design]) -> list[Hazard]:
     """Attach per-design hazards to every design; return the advice-wide hazards."""
     for d in designs:

@@ -61,10 +61,12 @@ class FieldProfile:
 
 @dataclass
 class Profile:
-    """The whole frame: row count and one FieldProfile per column, in column order."""
+    """The whole frame: row count and one FieldProfile per column, in column order.
+    ``sample_rows`` is the size of the seeded sample costly statistics came from (None: all)."""
 
     rows: int
     fields: dict[str, FieldProfile]
+    sample_rows: int | None = None
 
     def __getitem__(self, label: str) -> FieldProfile:
         return self.fields[label]
@@ -99,15 +101,46 @@ def check_frame(df) -> None:
         raise PlotwiseError("the frame has no columns; advise on a frame with data in it.")
 
 
+def sample_positions(n: int, k: int, seed: int = 0) -> np.ndarray:
+    """k row positions out of n, seeded and sorted (the same rows every time)."""
+    return np.sort(np.random.default_rng(seed).choice(n, size=k, replace=False))
+
+
 def profile_frame(df: pd.DataFrame) -> Profile:
-    """Profile every column of ``df``."""
+    """Profile every column of ``df``. Counts, missing values, min, max and mean are exact;
+    on frames above THRESHOLDS['profile_sample'] rows, distinct values, labels, skew and the
+    integer checks come from a seeded sample of that many rows (said in the evidence)."""
     check_frame(df)
+    n = int(df.shape[0])
+    k = THRESHOLDS["profile_sample"]
+    take = sample_positions(n, k) if n > k else None
     fields = {}
     for position, name in enumerate(df.columns):
-        fp = profile_series(df.iloc[:, position], name)
+        full = df.iloc[:, position]
+        fp = profile_series(full if take is None else full.iloc[take], name)
+        if take is not None:
+            _exact_over(fp, full, n, k)
         fp.position = position
         fields[str(name)] = fp
-    return Profile(rows=int(df.shape[0]), fields=fields)
+    return Profile(rows=n, fields=fields, sample_rows=None if take is None else k)
+
+
+def _exact_over(fp: FieldProfile, full: pd.Series, n: int, k: int) -> None:
+    """Replace the sample's counts by exact ones over the whole column (one cheap pass each)."""
+    fp.rows = n
+    fp.missing = int(full.isna().sum())
+    if fp.level == "quantitative" and fp.minimum is not None and not fp.is_timedelta \
+            and pd.api.types.is_numeric_dtype(full.dtype):
+        v = full.to_numpy(dtype=float, na_value=np.nan)
+        finite = np.isfinite(v)
+        fp.infinite = int((~finite & ~np.isnan(v)).sum())
+        if finite.any():
+            fp.minimum, fp.maximum = float(v[finite].min()), float(v[finite].max())
+            fp.mean = float(v[finite].mean())
+    if isinstance(full.dtype, pd.CategoricalDtype) or pd.api.types.is_bool_dtype(full.dtype):
+        fp.distinct = _safe_nunique(full)
+    fp.evidence.insert(1, f"distinct values, labels and shape from a seeded sample of {k:,} of "
+                          f"{n:,} rows; counts, min and max exact")
 
 
 def _safe_nunique(s: pd.Series) -> int:

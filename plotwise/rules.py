@@ -141,6 +141,18 @@ THRESHOLDS = {
     "max_bars": 30,
     # Scatter of more points than this switches the advice to hexbin (common practice).
     "scatter_max_points": 5000,
+    # Large frames (our own documented sizes): profiling statistics that cost more than a pass
+    # (distinct values, skew, integer checks, labels) come from a seeded sample of this many
+    # rows when the frame is larger...
+    "profile_sample": 200_000,
+    # ...and designs that draw every point (scatter, strip, box, violin, density, ECDF) draw a
+    # seeded random sample of "draw_sample" rows when the data has more than "draw_sample_above".
+    "draw_sample": 20_000,
+    "draw_sample_above": 50_000,
+    # Histograms of more rows than this are binned with numpy first and drawn as steps.
+    "prebin_above": 50_000,
+    # Hexbins and 2-D histograms of more rows than this count a seeded sample of that many rows.
+    "bin_sample": 200_000,
     # Small multiples: at most this many panels (common practice).
     "max_facets": 12,
     # Two palette colours closer than this CAM02-UCS ΔE, for normal or simulated colour-vision
@@ -169,6 +181,9 @@ THRESHOLDS = {
     # bars from zero would hide the differences, a dot plot shows them (common practice).
     "bunched_spread": 0.1,
 }
+
+# Kinds that draw every row as a mark (sampled on large data) and kinds drawn from binned counts.
+POINT_KINDS = ("scatter", "regression", "strip", "box", "violin", "density", "ecdf")
 
 # Marker drawn by scatter designs: seaborn's default marker area, in points² (from memory: 36 in
 # seaborn 0.13 via rcParams lines.markersize 6 → 6² = 36).
