@@ -82,7 +82,8 @@ def mean_gap(used: pd.DataFrame, x: str, y: str) -> dict | None:
     return {"d": spread / pooled, "range": spread, "sd": pooled}
 
 
-def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False) -> float:
+def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False,
+                 marker_px: float | None = None) -> float:
     """Share of points drawn on top of an earlier point at the drawn marker size.
 
     The panel's plotting area (75% of PANEL_SIZE_IN at PANEL_DPI) is cut into square cells one
@@ -101,10 +102,13 @@ def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False) -> float:
         x = np.log10(x)
     if logy:
         y = np.log10(y)
-    marker_px = np.sqrt(SCATTER_MARKER_AREA_PT2) * PANEL_DPI / 72.0
+    if marker_px is None:
+        marker_px_default = np.sqrt(SCATTER_MARKER_AREA_PT2) * PANEL_DPI / 72.0
+    else:
+        marker_px_default = marker_px
     wpx = PANEL_SIZE_IN[0] * 0.75 * PANEL_DPI
     hpx = PANEL_SIZE_IN[1] * 0.75 * PANEL_DPI
-    nx, ny = max(1, int(wpx / marker_px)), max(1, int(hpx / marker_px))
+    nx, ny = max(1, int(wpx / marker_px_default)), max(1, int(hpx / marker_px_default))
 
     def cells(v, k):
         lo, hi = v.min(), v.max()
@@ -112,6 +116,11 @@ def hidden_share(x: np.ndarray, y: np.ndarray, logx=False, logy=False) -> float:
             return np.zeros(len(v), dtype=np.int64)
         return np.minimum(((v - lo) / (hi - lo) * k).astype(np.int64), k - 1)
 
+    if marker_px is not None:  # x and y already in pixels (a drawn figure): cells one marker wide
+        cx = ((x - x.min()) // marker_px).astype(np.int64)
+        cy = ((y - y.min()) // marker_px).astype(np.int64)
+        occupied = len(np.unique(cx * (int(cy.max()) + 1) + cy))
+        return float(1.0 - occupied / n)
     occupied = len(np.unique(cells(x, nx) * (ny + 1) + cells(y, ny)))
     return float(1.0 - occupied / n)
 

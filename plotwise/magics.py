@@ -164,8 +164,11 @@ class PlotwiseMagics(Magics):
         """Run the cell, then advise on the DataFrame its last expression returns:
         %%plotwise [TASK] [DF_NAME] [--x COL] [--y COL] [--hue COL] [--top N] [--static].
         When the cell returns no DataFrame, the one named on the magic line is used, then the
-        most recently displayed one."""
+        most recently displayed one.
+        %%plotwise audit: run a plotting cell, show each figure it drew and audit it below."""
         args = parse_argstring(self.plotwise_cell, line)
+        if args.words and args.words[0] == "audit":
+            return self._audit_cell(cell)
         task, rest = split_positionals(list(args.words))
         if len(rest) > 1:
             raise UsageError("at most one DataFrame name after the task: %%plotwise [TASK] [DF_NAME]")
@@ -198,6 +201,48 @@ class PlotwiseMagics(Magics):
                           + frame_listing(ns))
                 return None
         self._advise(frame, args, task, name)
+        return None
+
+    def _audit_cell(self, cell: str):
+        import matplotlib.pyplot as plt
+        from IPython.display import display
+        from matplotlib.axes import Axes
+        from matplotlib.figure import Figure
+
+        from .audit import audit, recover_frame
+
+        before = set(plt.get_fignums())
+        try:
+            value = run_body(self.shell, cell)
+        except Exception:
+            self.shell.showtraceback()
+            return None
+        figures = [plt.figure(n) for n in plt.get_fignums() if n not in before]
+        if isinstance(value, Axes):
+            value = value.figure
+        if isinstance(value, Figure) and value not in figures:
+            figures.append(value)
+        if not figures:
+            say_error("the cell drew no matplotlib figure; nothing to audit.")
+            return None
+        try:
+            for fig in figures:
+                display(fig)
+                report = audit(fig)
+                display(report)
+                for ax in fig.get_axes():
+                    found = recover_frame(ax)
+                    if found is None or not report.hazards:
+                        continue
+                    frame, task = found
+                    try:
+                        display(advise(frame, task))
+                    except PlotwiseError:
+                        pass
+                    break
+        finally:
+            for fig in figures:  # shown above; closing keeps the inline backend from repeating them
+                plt.close(fig)
         return None
 
     def _code(self, words: list[str]):

@@ -67,6 +67,22 @@ def tour():
                     "value_range=(5, 40))\n"
                     "[(h.code, h.severity, h.message) for h in check.design('bar').hazards]",
                     ["truncated-baseline"]),
+        new_markdown_cell("## Auditing a chart someone already drew\n\nA quick bar chart of the "
+                          "average crossing time per boat type, with the axis zoomed in to make "
+                          "the difference look big. `%%plotwise audit` runs the cell, shows the "
+                          "figure, and says what is wrong with it:"),
+        advice_cell("%%plotwise audit\n"
+                    "import matplotlib.pyplot as plt\n"
+                    "means = sailings.groupby('boat')['crossing_minutes'].mean()\n"
+                    "fig, ax = plt.subplots(figsize=(4, 3))\n"
+                    "ax.bar(means.index, means.values)\n"
+                    "ax.set_ylim(12, 30)\n"
+                    "ax.set_ylabel('average crossing (minutes)')", ["truncated-baseline"]),
+        new_markdown_cell("The fix: start the bars at zero (or use dots). Audited again, it is clean:"),
+        advice_cell("%%plotwise audit\n"
+                    "fig, ax = plt.subplots(figsize=(4, 3))\n"
+                    "ax.bar(means.index, means.values)\n"
+                    "ax.set_ylabel('average crossing (minutes)')", []),
         new_markdown_cell("## Two summers, pier by pier\n\nWith two time points per pier, "
                           "slope and difference charts come first:"),
         advice_cell("%plotwise compare seasons --x pier --y weekday_passengers", []),

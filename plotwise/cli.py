@@ -1,0 +1,74 @@
+"""Command line: ``plotwise audit script.py`` runs a plotting script with a non-interactive
+backend and audits every figure it creates. Exit 0: no severe hazard; 1: a severe hazard was
+found; 2: the script could not be run."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+
+def run_script(path: Path) -> list:
+    """Run ``path`` as __main__ with the Agg backend and plt.show() a no-op; return its figures."""
+    import runpy
+
+    import matplotlib
+
+    matplotlib.use("Agg", force=True)
+    import matplotlib.pyplot as plt
+
+    before = set(plt.get_fignums())
+    show = plt.show
+    plt.show = lambda *a, **k: None
+    old_argv = sys.argv
+    sys.argv = [str(path)]
+    try:
+        runpy.run_path(str(path), run_name="__main__")
+    finally:
+        plt.show = show
+        sys.argv = old_argv
+    return [plt.figure(n) for n in plt.get_fignums() if n not in before]
+
+
+def cmd_audit(args) -> int:
+    from .audit import audit
+
+    path = Path(args.script)
+    if not path.is_file():
+        print(f"plotwise: no such script: {path}", file=sys.stderr)
+        return 2
+    try:
+        figures = run_script(path)
+    except SystemExit as exc:
+        print(f"plotwise: {path} called sys.exit({exc.code!r}) before its figures could be audited",
+              file=sys.stderr)
+        return 2
+    except Exception as exc:  # the user's script failed: say so briefly, like a linter would
+        print(f"plotwise: {path} raised {type(exc).__name__}: {exc}", file=sys.stderr)
+        return 2
+    if not figures:
+        print(f"plotwise: {path} created no matplotlib figures; nothing to audit.")
+        return 0
+    worst = 0
+    for i, fig in enumerate(figures, 1):
+        report = audit(fig)
+        print(f"figure {i}: " + report.text().replace("plotwise audit: ", "").replace("plotwise audit:", ""))
+        if report.worst == "severe":
+            worst = 1
+    return worst
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(prog="plotwise", description="Chart advice and chart audits.")
+    sub = parser.add_subparsers(dest="command", required=True)
+    p = sub.add_parser("audit", help="run a plotting script and audit every figure it creates; "
+                                     "exit 1 when a severe hazard is found")
+    p.add_argument("script", help="path to a Python script that draws with matplotlib/seaborn/pandas")
+    p.set_defaults(func=cmd_audit)
+    args = parser.parse_args(argv)
+    return args.func(args)
+
+
+if __name__ == "__main__":  # pragma: no cover
+    raise SystemExit(main())
