@@ -196,6 +196,14 @@ def _dot(c: Ctx) -> list[str]:
     return lines
 
 
+def _over_time_finish(c: Ctx, f: FieldProfile | None) -> list[str]:
+    """Labels and style of a measure drawn over x; dates on x get slanted tick labels."""
+    lines = _labels(c, c.d.x, c.measure_label()) + _style(c, "y")
+    if f is not None and f.level == "temporal" and not f.is_integer:
+        lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=30)')
+    return lines
+
+
 def _time_dots(c: Ctx) -> list[str]:
     """Dots against a real time (or ordered) axis, no connecting line."""
     d = c.d
@@ -214,10 +222,7 @@ def _time_dots(c: Ctx) -> list[str]:
     size = "s=12" if (f is not None and f.distinct > 60) else "s=30"
     lines.append(f"sns.scatterplot(data=v, x={d.x!r}, y={vn!r}{hue}, {size}, linewidth=0, "
                  f"color={MAIN_COLOUR!r}, ax={c.ax})")
-    lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
-    if f is not None and f.level == "temporal" and not f.is_integer:
-        lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=30)')
-    return lines
+    return lines + _over_time_finish(c, f)
 
 
 def _grouped_bar(c: Ctx) -> list[str]:
@@ -327,10 +332,7 @@ def _line(c: Ctx, area: bool = False) -> list[str]:
     if area:
         lines.append(f"{c.ax}.fill_between({xs}, v.values, color={MAIN_COLOUR!r}, alpha=0.3)")
         lines.append(f"{c.ax}.set_ylim(bottom=0)")
-    lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
-    if f is not None and f.level == "temporal" and not f.is_integer:
-        lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=30)')
-    return lines
+    return lines + _over_time_finish(c, f)
 
 
 def _slope(c: Ctx) -> list[str]:

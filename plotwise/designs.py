@@ -173,6 +173,22 @@ def strongest_pair(df, profile: Profile, labels: list[str]) -> tuple[str, str, f
     return best
 
 
+def _choose_measure(profile: Profile, r: Roles, given: set, per: str) -> None:
+    """The measure on y: the caller's (which must be numeric) or the first numeric column;
+    without one, rows are counted per category or time point."""
+    f = profile.fields
+    if r.y is None:
+        m = _best_measure(profile, exclude=given | {r.x})
+        if m is not None:
+            r.y = m.label
+            r.notes.append(f"measure: '{m.label}', the first numeric column")
+        else:
+            r.notes.append(f"no numeric column: counting rows per {per}")
+    elif f[r.y].level != "quantitative":
+        raise PlotwiseError(f"'{r.y}' is {f[r.y].level}; y must be a numeric measure. "
+                            f"Leave y out to count rows per {per}.")
+
+
 def check_roles(profile: Profile, x, y, hue) -> tuple[str | None, str | None, str | None]:
     """The caller's column names as profile labels; each must exist and differ from the others."""
     x = check_column(profile, x, "x")
@@ -210,16 +226,7 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
                 f"'{r.x}' is {f[r.x].level} with {f[r.x].distinct} distinct values; {task} needs "
                 "a category with 2 to 60 values on x. Bin it first (pandas.cut) or pick another column."
             )
-        if r.y is None:
-            m = _best_measure(profile, exclude=given | {r.x})
-            if m is not None:
-                r.y = m.label
-                r.notes.append(f"measure: '{m.label}', the first numeric column")
-            else:
-                r.notes.append("no numeric column: counting rows per category")
-        elif f[r.y].level != "quantitative":
-            raise PlotwiseError(f"'{r.y}' is {f[r.y].level}; y must be a numeric measure. "
-                                "Leave y out to count rows per category.")
+        _choose_measure(profile, r, given, "category")
         if r.hue is None and task == "compare":
             p = _two_point_column(profile, exclude=given | {r.x, r.y})
             if p is not None and f[r.x].level == "nominal":
@@ -240,15 +247,7 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
                 )
             r.x = t.label
             r.notes.append(f"time: '{t.label}' ({f[t.label].distinct} time points)")
-        if r.y is None:
-            m = _best_measure(profile, exclude=given | {r.x})
-            if m is not None:
-                r.y = m.label
-                r.notes.append(f"measure: '{m.label}', the first numeric column")
-            else:
-                r.notes.append("no numeric column: counting rows per time point")
-        elif f[r.y].level != "quantitative":
-            raise PlotwiseError(f"'{r.y}' is {f[r.y].level}; y must be a numeric measure for a trend.")
+        _choose_measure(profile, r, given, "time point")
         if r.hue is None and f[r.x].distinct == 2:
             g = _best_category(profile, exclude=given | {r.x, r.y})
             if g is not None:

@@ -88,6 +88,19 @@ def split_positionals(words: list[str]) -> tuple[str | None, list[str]]:
     return None, words
 
 
+def advice_options(func):
+    """The options both magics take (applied innermost first, as IPython expects)."""
+    for decorator in reversed([
+        argument("--x", help="column for the categories, time or first variable"),
+        argument("--y", help="column for the measure or second variable"),
+        argument("--hue", help="column that splits the data into coloured groups"),
+        argument("--top", type=int, default=3, help="how many designs to draw side by side"),
+        argument("--static", action="store_true", help="static display, no widget panel"),
+    ]):
+        func = decorator(func)
+    return func
+
+
 @magics_class
 class PlotwiseMagics(Magics):
     """Chart advice on the active DataFrame."""
@@ -114,15 +127,11 @@ class PlotwiseMagics(Magics):
             return
         self._show(advice, name, not args.static)
 
-    @magic_arguments()
+    @magic_arguments("plotwise")
     @argument("words", nargs="*", help="TASK (compare, trend, proportion, correlate, "
               "distribution; optional) then DF_NAME; or 'code N' to put design N's code in the "
               "next cell")
-    @argument("--x", help="column for the categories, time or first variable")
-    @argument("--y", help="column for the measure or second variable")
-    @argument("--hue", help="column that splits the data into coloured groups")
-    @argument("--top", type=int, default=3, help="how many designs to draw side by side")
-    @argument("--static", action="store_true", help="static display, no widget panel")
+    @advice_options
     @line_magic("plotwise")
     def plotwise_line(self, line: str = ""):
         """Advise on a DataFrame by name: %plotwise [TASK] DF_NAME [--x COL] [--y COL]
@@ -152,13 +161,9 @@ class PlotwiseMagics(Magics):
         self._advise(frame, args, task, name)
         return None
 
-    @magic_arguments()
+    @magic_arguments("%plotwise")
     @argument("words", nargs="*", help="TASK (optional) and, optionally, the DataFrame's name")
-    @argument("--x", help="column for the categories, time or first variable")
-    @argument("--y", help="column for the measure or second variable")
-    @argument("--hue", help="column that splits the data into coloured groups")
-    @argument("--top", type=int, default=3, help="how many designs to draw side by side")
-    @argument("--static", action="store_true", help="static display, no widget panel")
+    @advice_options
     @cell_magic("plotwise")
     def plotwise_cell(self, line: str, cell: str):
         """Run the cell, then advise on the DataFrame its last expression returns:
