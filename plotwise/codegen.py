@@ -594,7 +594,7 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
                       for label in design.columns)
     # A correlation matrix uses every pairwise-complete row; other designs drop incomplete rows.
     drop = "" if design.options.get("matrix") else ".dropna()"
-    lines = [f"d = pd.DataFrame({{{items}}}){drop}"]
+    lines = [f"d = pd.DataFrame({{{items}}}, copy=False){drop}"]
     if design.options.get("log_columns"):
         for col in design.options["log_columns"]:
             lines.append(f"d = d[d[{col!r}] > 0]")

@@ -39,9 +39,12 @@ def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.
             s = pd.to_numeric(s, errors="coerce").round().astype("Int64")
         elif f.level in ("quantitative", "temporal") and pd.api.types.is_numeric_dtype(s.dtype) \
                 and not pd.api.types.is_bool_dtype(s.dtype):
-            s = pd.to_numeric(s, errors="coerce").astype("float64").replace([np.inf, -np.inf], np.nan)
+            if s.dtype != np.float64:
+                s = pd.to_numeric(s, errors="coerce").astype("float64")
+            if f.infinite:
+                s = s.replace([np.inf, -np.inf], np.nan)
         data[label] = s.reset_index(drop=True)
-    return pd.DataFrame(data)
+    return pd.DataFrame(data, copy=False)
 
 
 def aggregate(w: pd.DataFrame, by: list[str], y: str | None, stat: str) -> pd.Series:
@@ -135,10 +138,27 @@ def point_sample(used: pd.DataFrame, k: int | None = None) -> pd.DataFrame:
     return used.iloc[take]
 
 
-def grouped(used: pd.DataFrame, x: str, y: str | None) -> dict:
-    """One hashing pass over the categories, then sums, counts and sums of squares per group
+def category_codes(values: pd.Series, known: tuple = ()) -> tuple[np.ndarray, pd.Index]:
+    """Integer codes of a category column. With the profile's labels known, codes come from a
+    lookup in a table of those few labels (a fraction of the memory of hashing every row); any
+    value not among them falls back to a full factorisation, so the result is always exact."""
+    if known:
+        try:
+            labels = pd.Index(sorted(known))
+        except TypeError:
+            labels = None
+        if labels is not None and labels.is_unique:
+            codes = labels.get_indexer(values)
+            if not (codes < 0).any():
+                return codes, labels
+    codes, uniques = pd.factorize(values, sort=True)
+    return codes, pd.Index(uniques)
+
+
+def grouped(used: pd.DataFrame, x: str, y: str | None, known: tuple = ()) -> dict:
+    """One pass over the categories, then sums, counts and sums of squares per group
     (numpy.bincount): totals and means are exact, spreads computed analytically."""
-    codes, uniques = pd.factorize(used[x], sort=True)
+    codes, uniques = category_codes(used[x], known)
     cnt = np.bincount(codes, minlength=len(uniques)).astype(float)
     out = {"labels": uniques, "count": cnt}
     if y is not None:
@@ -178,13 +198,15 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
     shapes) use the same seeded sample the drawing uses on large frames."""
     cols = [c for c in dict.fromkeys([x, y, hue]) if c]
     w = working_frame(df, profile, cols) if w is None else w[cols]
-    used = w.dropna()
+    complete = all(profile.fields[c].missing + profile.fields[c].infinite == 0
+                   and not profile.fields[c].parse_dates for c in cols)
+    used = w if complete else w.dropna()
     out: dict = {"points": int(len(used)), "left_out": int(len(w) - len(used)), "rows": int(len(w))}
     pts = point_sample(used)
     out["sampled"] = len(pts) < len(used)
     ym = y if (y and profile.fields[y].level == "quantitative") else None
     if task in ("compare", "proportion", "trend") and x:
-        g = grouped(used, x, ym)
+        g = grouped(used, x, ym, profile.fields[x].labels)
         use = "sum" if task == "proportion" else stat
         if ym is None or use == "count":
             v = g["count"]

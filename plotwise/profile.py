@@ -49,6 +49,7 @@ class FieldProfile:
     time_gaps: int = 0
     position: int = 0  # column position in the frame
     as_text: bool = False  # values are mixed Python objects, compared as their text
+    labels: tuple = ()  # every distinct value seen (in the profile's rows), when there are few
 
     @property
     def usable(self) -> int:
@@ -150,6 +151,15 @@ def _safe_nunique(s: pd.Series) -> int:
         return int(s.dropna().astype(str).nunique())
 
 
+def _all_labels(s: pd.Series) -> tuple:
+    """Every distinct non-missing value, when there are few enough to be categories."""
+    try:
+        u = pd.unique(s.dropna())
+    except TypeError:
+        return ()
+    return tuple(u) if len(u) <= THRESHOLDS["max_categories"] else ()
+
+
 def _top_labels(s: pd.Series, k: int = 12) -> tuple:
     try:
         counts = s.value_counts(dropna=True)
@@ -220,6 +230,7 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
 
     # Strings and mixed objects.
     fp.top_labels = _top_labels(s)
+    fp.labels = _all_labels(s)
     if pd.api.types.is_object_dtype(dtype):
         kinds = {type(v).__name__ for v in s.dropna().head(1000)}
         if kinds - {"str"}:

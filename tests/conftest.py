@@ -32,3 +32,13 @@ def pytest_terminal_summary(terminalreporter):
         terminalreporter.write_line(
             f"property test: {c['frames']} generated frames ({c['advice']} advised, "
             f"{c['errors']} clear PlotwiseErrors)")
+
+
+@pytest.fixture(scope="session")
+def ipshell():
+    """One real IPython shell for the whole run, with plotwise's magics loaded."""
+    from IPython.testing.globalipapp import get_ipython, start_ipython
+
+    shell = start_ipython() or get_ipython()
+    shell.run_cell("%load_ext plotwise")
+    return shell

@@ -9,7 +9,6 @@ import numpy as np
 import pandas as pd
 import pytest
 import seaborn as sns
-from IPython.testing.globalipapp import start_ipython
 from IPython.utils.capture import capture_output
 
 import plotwise
@@ -180,9 +179,8 @@ def test_audit_does_not_change_figure_and_marks_axes():
         audit("not a figure")
 
 
-def test_audit_cell_magic():
-    ip = start_ipython()
-    ip.run_cell("%load_ext plotwise")
+def test_audit_cell_magic(ipshell):
+    ip = ipshell
     cell = ("import matplotlib.pyplot as plt\nfig, ax = plt.subplots()\n"
             "ax.bar(['a', 'b', 'c'], [91, 95, 99])\nax.set_ylim(90, 100)\nax.set_ylabel('sales')")
     with capture_output() as c:

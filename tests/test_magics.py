@@ -4,19 +4,15 @@ import matplotlib.pyplot as plt
 import pandas as pd
 import pytest
 from IPython.core.error import UsageError
-from IPython.testing.globalipapp import start_ipython
 from IPython.utils.capture import capture_output
 from open_data import grunfeld
 
 import plotwise
 
 
-@pytest.fixture(scope="module")
-def ip():
-    shell = start_ipython()
-    shell.run_cell("%load_ext plotwise")
-    yield shell
-    shell.run_cell("%unload_ext plotwise")
+@pytest.fixture
+def ip(ipshell):
+    return ipshell
 
 
 @pytest.fixture
