@@ -133,11 +133,12 @@ def _exact_over(fp: FieldProfile, full: pd.Series, n: int, k: int) -> None:
     if fp.level == "quantitative" and fp.minimum is not None and not fp.is_timedelta \
             and pd.api.types.is_numeric_dtype(full.dtype):
         v = full.to_numpy(dtype=float, na_value=np.nan)
-        finite = np.isfinite(v)
-        fp.infinite = int((~finite & ~np.isnan(v)).sum())
-        if finite.any():
-            fp.minimum, fp.maximum = float(v[finite].min()), float(v[finite].max())
-            fp.mean = float(v[finite].mean())
+        fp.infinite = int(np.isinf(v).sum())
+        if fp.infinite:
+            v = np.where(np.isinf(v), np.nan, v)
+        if fp.missing + fp.infinite < n:
+            fp.minimum, fp.maximum = float(np.nanmin(v)), float(np.nanmax(v))
+            fp.mean = float(np.nanmean(v))
     if isinstance(full.dtype, pd.CategoricalDtype) or pd.api.types.is_bool_dtype(full.dtype):
         fp.distinct = _safe_nunique(full)
     fp.evidence.insert(1, f"distinct values, labels and shape from a seeded sample of {k:,} of "

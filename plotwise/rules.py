@@ -152,7 +152,7 @@ THRESHOLDS = {
     # Histograms of more rows than this are binned with numpy first and drawn as steps.
     "prebin_above": 50_000,
     # Hexbins and 2-D histograms of more rows than this count a seeded sample of that many rows.
-    "bin_sample": 200_000,
+    "bin_sample": 100_000,
     # Small multiples: at most this many panels (common practice).
     "max_facets": 12,
     # Two palette colours closer than this CAM02-UCS ΔE, for normal or simulated colour-vision

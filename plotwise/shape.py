@@ -25,15 +25,16 @@ def kde_modes(values, log: bool = False) -> int:
     from scipy.signal import find_peaks
     from scipy.stats import gaussian_kde
 
-    v = _finite(values)
+    v = np.asarray(values, dtype=float)
+    if len(v) > MODE_SAMPLE:  # sample first: the transforms below then touch few values
+        v = v[np.random.default_rng(0).choice(len(v), MODE_SAMPLE, replace=False)]
+    v = _finite(v)
     if log:
         v = np.log10(v[v > 0])
     if len(v) < THRESHOLDS["few_points"] or np.ptp(v) == 0:
         return 1
     if len(np.unique(v)) < 5:
         return 1
-    if len(v) > MODE_SAMPLE:
-        v = np.random.default_rng(0).choice(v, MODE_SAMPLE, replace=False)
     try:
         kde = gaussian_kde(v, bw_method="silverman")
     except np.linalg.LinAlgError:
