@@ -126,6 +126,11 @@ def _style(c: Ctx, value_axis: str | None) -> list[str]:
     return lines
 
 
+def _legend(c: Ctx) -> str:
+    """A small frameless legend titled with the (shortened) hue column."""
+    return f"{c.ax}.legend(title={short(c.d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)"
+
+
 def _labels(c: Ctx, xlabel: str | None, ylabel: str | None, xnote: str = "") -> list[str]:
     """Axis labels, each cut to one short line; ``xnote`` goes on a second line under x."""
     out = []
@@ -248,7 +253,7 @@ def _grouped_bar(c: Ctx) -> list[str]:
         lines.append(f'sns.barplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, order=order, '
                      f'hue_order=hues, palette={pal}, errorbar=None, ax={c.ax})')
         lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
-    lines.append(f'{c.ax}.legend(title={short(d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)')
+    lines.append(_legend(c))
     return lines
 
 
@@ -313,7 +318,7 @@ def _line(c: Ctx, area: bool = False) -> list[str]:
                 f"hues = sorted(v[{d.hue!r}].unique())",
                 f"sns.lineplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, hue_order=hues, "
                 f"palette={c.palette(c.f(d.hue).distinct, 'len(hues)')}, errorbar=None, ax={c.ax})",
-                f'{c.ax}.legend(title={short(d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)',
+                _legend(c),
                 ] + _labels(c, d.x, c.measure_label()) + _style(c, "y")
     lines = [f"v = {c.grouped([d.x])}"]
     if f is not None and f.level == "ordinal" and f.order:
@@ -413,7 +418,7 @@ def _scatter(c: Ctx) -> list[str]:
              f"sns.scatterplot(x={c.data}[{d.x!r}], y={c.data}[{d.y!r}]{hue}, s=36, alpha=alpha, "
              f"color={MAIN_COLOUR!r}, linewidth=0, ax={c.ax})"]
     if d.hue:
-        lines.append(f'{c.ax}.legend(title={short(d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)')
+        lines.append(_legend(c))
     lines += _logs(c) + _labels(c, d.x, d.y) + _style(c, None)
     return lines
 
@@ -434,7 +439,7 @@ def _regression(c: Ctx) -> list[str]:
                 f"for i, (name, part) in enumerate({c.data}.groupby({d.hue!r}, observed=True)):",
                 f"    sns.regplot(data=part, x={d.x!r}, y={d.y!r}, {ci}, color=colors[i % len(colors)], "
                 f"scatter_kws={{\"s\": 16, \"alpha\": 0.5}}, label=str(name), ax={c.ax})",
-                f'{c.ax}.legend(title={short(d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)',
+                _legend(c),
                 ] + _labels(c, d.x, d.y) + _style(c, None)
     return [f"sns.regplot(data={c.data}, x={d.x!r}, y={d.y!r}, {ci}, color={MAIN_COLOUR!r}, "
             f"scatter_kws={{\"s\": 16, \"alpha\": 0.5}}, line_kws={{\"color\": {OKABE_ITO[3]!r}}}, ax={c.ax})",
