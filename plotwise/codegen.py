@@ -347,8 +347,13 @@ def _slope(c: Ctx) -> list[str]:
             f"colors = {c.palette(c.f(group).distinct)}",
             "for i, (name, row) in enumerate(t.iterrows()):",
             f"    {c.ax}.plot([0, 1], row.values, marker=\"o\", color=colors[i % len(colors)])",
-            f"    {c.ax}.annotate(str(name)[:18], (1, row.values[1]), xytext=(5, 0), "
-            "textcoords=\"offset points\", va=\"center\", fontsize=7)",
+            "# End labels, nudged apart so they do not overlap (at least 4% of the range).",
+            "gap = 0.04 * ((t.max().max() - t.min().min()) or 1)",
+            "label_y = []",
+            "for name, end in t.iloc[:, 1].sort_values().items():",
+            "    label_y.append(max(end, label_y[-1] + gap) if label_y else end)",
+            f"    {c.ax}.annotate(str(name)[:18], (1, end), xytext=(1.06, label_y[-1]), "
+            "textcoords=\"data\", va=\"center\", fontsize=7)",
             f"{c.ax}.set_xticks([0, 1], [str(p) for p in t.columns])",
             f"{c.ax}.set_xlim(-0.15, 1.45)",
             ] + _labels(c, d.x, c.measure_label()) + _style(c, "y")
