@@ -18,6 +18,7 @@ DIGEST_JS = """async (sel) => {
 
 class State:
     page = None
+    lab = None
     console_errors: list = []
 
 
@@ -52,11 +53,17 @@ def wait_code(page, *needles, timeout=60):
 
 
 def choose(page, control, label):
+    """Pick a value and let the kernel finish handling it before the next action (fast successive
+    changes otherwise race the kernel's replies)."""
     page.locator(f".pw-{control} select").first.select_option(label=label)
+    State.lab.wait_idle()
+    time.sleep(0.5)
+    State.lab.wait_idle()
 
 
 @pytest.fixture(scope="module")
 def page(lab, browser, shots):
+    State.lab = lab
     pg = browser.new_page(viewport={"width": 1280, "height": 800})
     pg.on("console", lambda m: State.console_errors.append(m.text) if m.type == "error" else None)
     pg.on("pageerror", lambda e: State.console_errors.append(str(e)))
