@@ -10,6 +10,7 @@ $(STAMP): pyproject.toml
 	$(PY) -m venv $(VENV)
 	$(BIN)/python -m pip install --quiet --upgrade pip
 	$(BIN)/python -m pip install --quiet -e ".[test,lint]"
+	command -v java >/dev/null 2>&1 || (apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq default-jre-headless)
 	touch $(STAMP)
 
 demo: $(STAMP)

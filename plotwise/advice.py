@@ -33,7 +33,7 @@ class Advice:
     top: int = 3
     request: dict = field(default_factory=dict)  # the arguments advise() was called with
     headline: str | None = None  # one sentence, when a single number says it better than a chart
-    _df: pd.DataFrame | None = field(default=None, repr=False, compare=False)
+    _df: object | None = field(default=None, repr=False, compare=False)  # pandas or engine data
 
     @property
     def fields(self) -> dict[str, FieldProfile]:
@@ -106,10 +106,18 @@ class Advice:
                 f"no design {which!r}; pick 0..{len(self.designs) - 1} or a kind name."
             ) from None
 
-    def _frame(self) -> pd.DataFrame:
+    def _frame(self):
+        """What the drawing code reads as ``df``: the caller's frame, or the engine's data."""
         if self._df is None:
             raise PlotwiseError("this advice holds no data to draw.")
-        return self._df
+        src = self.profile.source
+        return src.native if src is not None else self._df
+
+    @property
+    def engine(self) -> str:
+        """Which engine computed the advice: 'pandas', or the engine holding the data."""
+        src = self.profile.source
+        return "pandas" if src is None else src.engine_name
 
     # Display ---------------------------------------------------------------------------------
     def text(self) -> str:
@@ -183,7 +191,51 @@ def _large_data_options(d: Design, stats: dict) -> None:
         d.options["note"] = f"{'counts' if d.stat == 'count' else 'totals' if d.stat in ('sum', 'value') else 'averages'} of all {n:,} rows, computed before drawing"
 
 
-def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
+def _engine_options(d: Design, stats: dict, profile: Profile, working, bins) -> None:
+    """Engine data: which rows each design's query brings back, and the panel note saying so."""
+    from .codegen import engine_mode
+
+    n = stats.get("points", 0)
+    name = profile.source.engine_name
+    d.options["complete_rows"] = n
+    mode = engine_mode(d)
+    if mode == "groups":
+        what = {"count": "counts", "mean": "averages", "median": "medians"}.get(d.stat, "totals")
+        d.options["note"] = f"{name} computed the {what} of all {n:,} rows"
+    elif mode == "bins":
+        f = profile.fields[d.x]
+        d.options["edges"] = engine_edges(working[d.x].dropna().to_numpy(dtype=float), n, f,
+                                          bins[0] if bins else "fd", skewed(f))
+        d.options["note"] = f"{name} counted all {n:,} rows into bins"
+    else:
+        k = d.options.get("sample", (0, THRESHOLDS["bin_sample"]))[1]
+        d.options["engine_sample"] = k
+        d.options.pop("sample", None)
+        d.options["note"] = (f"random sample of about {k:,} of {n:,} rows, drawn by {name}"
+                             if n > k else f"all {n:,} rows, fetched from {name}")
+
+
+def engine_edges(sample: np.ndarray, n: int, f: FieldProfile, rule: str, log: bool) -> tuple:
+    """Histogram bins for engine data: (low, width, count, log). The Freedman–Diaconis width
+    2·IQR·n^(-1/3) takes the IQR from the seeded sample and n, min and max exact from the
+    engine; Sturges ⌈log2 n⌉ + 1 uses the exact n. At most 200 bins (common practice)."""
+    lo, hi = f.minimum, f.maximum
+    v = sample[np.isfinite(sample)]
+    if log:
+        lo, hi = np.log10(lo), np.log10(hi)
+        v = np.log10(v[v > 0])
+    span = hi - lo
+    k = int(np.ceil(np.log2(max(n, 1))) + 1)
+    if rule == "fd" and len(v) > 1:
+        q25, q75 = np.percentile(v, [25, 75])
+        if q75 > q25 and span > 0:
+            k = int(np.ceil(span / (2 * (q75 - q25) * n ** (-1 / 3))))
+    k = int(min(max(k, 1), 200))
+    width = span / k if span > 0 else 1.0
+    return float(lo), float(width), k, bool(log)
+
+
+def _mark_single_values(df, profile: Profile, designs: list[Design], exact=None) -> None:
     """Where each group holds one row, a design draws the value itself, not a total or mean."""
     unique: dict[tuple, bool] = {}
     for d in designs:
@@ -195,6 +247,8 @@ def _mark_single_values(df, profile: Profile, designs: list[Design]) -> None:
             combos *= max(profile.fields[k].distinct, 1)
         if profile.rows > combos:  # more rows than key combinations: some group has several
             unique[keys] = False
+        if keys not in unique and exact is not None:
+            unique[keys] = exact.unique_keys(list(keys), d.y)
         if keys not in unique:
             w = working_frame(df, profile, list(keys) + [d.y]).dropna()
             unique[keys] = not w.duplicated(subset=list(keys)).any()
@@ -230,13 +284,14 @@ def _colour_reason(d: Design, profile: Profile) -> str | None:
     return None
 
 
-def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, cmap=None):
+def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, cmap=None,
+                 exact=None):
     roles = choose_roles(profile, task, x, y, hue, df)
     designs = candidates(profile, task, roles, agg)
     if not designs:
         raise PlotwiseError(f"no design can show {task} for these columns.")
     if agg is None:
-        _mark_single_values(df, profile, designs)
+        _mark_single_values(df, profile, designs, exact)
     stat = designs[0].stat if designs[0].stat not in ("distribution", "raw") else "sum"
     for d in designs:
         if d.stat not in ("distribution", "raw", "difference"):
@@ -244,7 +299,8 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
             break
     working = working_frame(df, profile, [c for c in dict.fromkeys(
         [roles.x, roles.y, roles.hue, roles.period]) if c])
-    stats = design_stats(df, profile, task, roles.x, roles.y, roles.hue, stat, w=working)
+    stats = design_stats(df, profile, task, roles.x, roles.y, roles.hue, stat, w=working,
+                         exact=exact)
     if stats["points"] == 0:
         cols = ", ".join(repr(c) for c in dict.fromkeys([roles.x, roles.y, roles.hue]) if c)
         raise PlotwiseError(f"no row has values in all of {cols}; nothing to draw for {task}.")
@@ -273,6 +329,8 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
                     f"log axis for {', '.join(repr(c) for c in logs)}: right-skewed (skewness "
                     f"{profile.fields[logs[0]].skew:.1f}), so equal steps mean equal ratios"]
         _large_data_options(d, stats)
+        if exact is not None:
+            _engine_options(d, stats, profile, working, bins)
         if d.kind in ("line", "area") and stats.get("time_gaps"):
             d.options["break_gaps"] = True
         if d.kind == "histogram" and bins is not None:
@@ -374,7 +432,15 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
         resolve_cmap(cmap)
     if not isinstance(top, int) or top < 1:
         raise PlotwiseError("top must be a whole number ≥ 1.")
-    profile = profile_frame(df)
+    from .sources import EngineStats, open_source, profile_source
+
+    src = open_source(df)
+    exact = None
+    if src is None:
+        profile = profile_frame(df)
+    else:  # an engine holds the data: profile there, work on a seeded sample here
+        profile, df = profile_source(src)
+        exact = EngineStats(src, profile)
     from .designs import check_roles
 
     check_roles(profile, x, y, hue)
@@ -386,7 +452,8 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     headlines: dict[str, str | None] = {}
     for t in tasks:
         try:
-            ds, hz, nt, hl = _advise_task(df, profile, t, x, y, hue, agg, value_range, palette, cmap)
+            ds, hz, nt, hl = _advise_task(df, profile, t, x, y, hue, agg, value_range, palette,
+                                          cmap, exact)
         except PlotwiseError as exc:
             if task:
                 raise
@@ -418,5 +485,9 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     request = {"task": task, "x": x, "y": y, "hue": hue, "agg": agg, "value_range": value_range,
                "palette": palette, "cmap": cmap}
     headline = headlines.get(task if task else shown[0].task)
+    if src is not None:
+        notes.append(f"{src.engine_name} computed, over all {profile.rows:,} rows of the "
+                     f"{src.kind}: " + "; ".join(src.computed) + ". Checks on single points "
+                     "(overplotting, fits, modes) used a seeded sample.")
     return Advice(task=task, profile=profile, designs=ranked, hazards=hazards, notes=notes,
                   top=top, request=request, headline=headline, _df=df)

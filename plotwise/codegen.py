@@ -67,6 +67,9 @@ class Ctx:
         self.p = profile
         self.data = data
         self.ax = ax
+        # Engine data drawn from per-group rows: the name of their row-count column.
+        self.preagg = (engine_count_name(design) if profile.source is not None
+                       and engine_mode(design) == "groups" else None)
 
     def palette(self, n_hint: int, count: str | None = None) -> str:
         return palette_expr(n_hint, count, self.d.options.get("palette"))
@@ -113,7 +116,17 @@ class Ctx:
 
     def grouped(self, by: list[str]) -> str:
         keys = by[0] if len(by) == 1 else by
-        return f"{self.data}.groupby({keys!r}, observed=True){self.agg_call()}"
+        g = f"{self.data}.groupby({keys!r}, observed=True)"
+        d = self.d
+        if self.preagg is not None:  # rows already one per group: add counts and sums up
+            if d.y is None or d.stat == "count":
+                return f"{g}[{self.preagg!r}].sum()"
+            if d.stat == "mean":
+                return f"({g}[{d.y!r}].sum() / {g}[{self.preagg!r}].sum()).rename({d.y!r})"
+            if d.stat == "median":
+                return f"{g}[{d.y!r}].median()"
+            return f"{g}[{d.y!r}].sum()"
+        return f"{g}{self.agg_call()}"
 
 
 def _style(c: Ctx, value_axis: str | None) -> list[str]:
@@ -167,7 +180,9 @@ def _bar(c: Ctx) -> list[str]:
     else:
         lines.append(f'sns.barplot(x=labels, y=v.values, color={MAIN_COLOUR!r}, ax={c.ax})')
         lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
-        if len(c.f(d.x).top_labels) and c.f(d.x).distinct > 12:
+        f = c.f(d.x)
+        dates = f.level == "temporal" and not f.is_integer
+        if (len(f.top_labels) and f.distinct > 12) or (dates and f.distinct > 6):
             lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=90)')
     return lines
 
@@ -492,8 +507,24 @@ def _prebinned_histogram(c: Ctx, rule) -> list[str]:
     return lines + _labels(c, d.x, "number of rows") + _style(c, "y")
 
 
+def _engine_histogram(c: Ctx) -> list[str]:
+    """Engine data: the engine counts every row into the bins plotwise chose; only the counts
+    come back. ``counts`` is set by the engine lines (see engine_lines)."""
+    d = c.d
+    lo, width, k, log = d.options["edges"]
+    edges = f"np.linspace({lo!r}, {lo + width * k!r}, {k + 1})"
+    lines = [f"edges = 10 ** {edges}" if log else f"edges = {edges}",
+             f"{c.ax}.stairs(counts, edges, fill=True, color={MAIN_COLOUR!r}, alpha=0.75)",
+             f"{c.ax}.set_ylim(bottom=0)"]
+    if log:
+        lines.append(f'{c.ax}.set_xscale("log")')
+    return lines + _labels(c, d.x, "number of rows") + _style(c, "y")
+
+
 def _histogram(c: Ctx) -> list[str]:
     d = c.d
+    if c.p.source is not None and engine_mode(d) == "bins":
+        return _engine_histogram(c)
     rule = d.options.get("bins", "fd")
     if d.options.get("prebin") and not d.hue:
         return _prebinned_histogram(c, rule)
@@ -565,19 +596,19 @@ def _count_bar(c: Ctx) -> list[str]:
     d = c.d
     f = c.f(d.x)
     if d.hue:
-        return [f"v = {c.data}.groupby([{d.x!r}, {d.hue!r}], observed=True).size().reset_index(name=\"rows\")",
+        return [f"v = {c.grouped([d.x, d.hue])}.reset_index(name=\"rows\")",
                 f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)",
                 f"order = sorted({c.data}[{d.x!r}].unique())" if f.level != "nominal"
-                else f"order = list({c.data}[{d.x!r}].value_counts().index)",
+                else f"order = list({c.grouped([d.x])}.sort_values(ascending=False, kind=\"stable\").index)",
                 f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
                 f"sns.barplot(data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, order=[str(o) for o in order], "
                 f"hue_order=sorted(v[{d.hue!r}].unique()), palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
                 f"errorbar=None, ax={c.ax})",
                 ] + _labels(c, d.x, "number of rows") + _style(c, "y")
     if f.level == "nominal":
-        lines = [f"v = {c.data}[{d.x!r}].value_counts()"]
+        lines = [f"v = {c.grouped([d.x])}.sort_values(ascending=False, kind=\"stable\")"]
     else:
-        lines = [f"v = {c.data}[{d.x!r}].value_counts().sort_index()"]
+        lines = [f"v = {c.grouped([d.x])}"]
     lines.append("labels = [f\"{k:g}\" if isinstance(k, float) else str(k) for k in v.index]")
     if d.horizontal:
         lines.append(f"sns.barplot(x=v.values, y=labels, orient=\"h\", color={MAIN_COLOUR!r}, ax={c.ax})")
@@ -598,8 +629,78 @@ GENERATORS = {
 }
 
 
+GROUP_KINDS = ("bar", "dot", "grouped-bar", "stacked-bar", "stacked-bar-100", "pie", "line",
+               "area", "slope", "difference-bar", "count-bar", "heatmap")
+
+
+def engine_mode(design: Design) -> str:
+    """How engine data reaches a design: 'groups' (one row per group, computed by the engine),
+    'bins' (row counts per histogram bin, computed by the engine) or 'rows' (a bounded sample)."""
+    if design.kind in GROUP_KINDS and not design.options.get("matrix") and not (
+            design.kind == "heatmap" and design.task == "correlate"):
+        return "groups"
+    if design.kind == "histogram" and not design.hue:
+        return "bins"
+    return "rows"
+
+
+def engine_count_name(design: Design) -> str:
+    from .sources import count_name
+
+    return count_name(engine_keys(design), design.y)
+
+
+def engine_keys(design: Design) -> list[str]:
+    measure = None if (design.y is None or design.stat == "count") else design.y
+    return [c for c in design.columns if c != measure]
+
+
+def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
+    """Engine data: the query that runs in the engine, then ``d`` (or ``counts``) in pandas."""
+    from .sources import bins_expr, grouped_expr, sample_expr
+
+    src = profile.source
+    name = src.engine_name
+    mode = engine_mode(design)
+    n = design.options.get("complete_rows", 0)
+    quantitative = [c for c in design.columns if profile.fields[c].level == "quantitative"]
+    if mode == "bins":
+        lo, width, k, log = design.options["edges"]
+        return [f"# {name} counts all {n:,} rows into {k} bins; only the counts come back.",
+                f"counts = {bins_expr(src, design.x, lo, width, k, log, frame)}",
+                f"counts = counts.reindex(range({k}), fill_value=0).to_numpy()"]
+    if mode == "groups":
+        keys = engine_keys(design)
+        measure = None if len(keys) == len(design.columns) else design.y
+        stat = "median" if design.stat == "median" else "sum"
+        cnt = engine_count_name(design)
+        lines = [f"# {name} computes one row per group from all {n:,} rows; only those come back.",
+                 f"agg = {grouped_expr(src, keys, measure, stat, finite=measure in quantitative, frame=frame)}"]
+        items = [f"{c!r}: {column_expr(profile.fields[c], 'agg')}" for c in keys]
+        if measure:
+            items.append(f"{measure!r}: agg[{measure!r}].astype(\"float64\")")
+        items.append(f"{cnt!r}: agg[{cnt!r}]")
+        return lines + [f"d = pd.DataFrame({{{', '.join(items)}}}, copy=False).dropna()"]
+    k = design.options.get("engine_sample", n)
+    cols = design.columns
+    fin = tuple(quantitative)
+    what = (f"a random sample of about {k:,} of the {n:,} complete rows" if n > k
+            else f"all {n:,} complete rows")
+    items = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in cols)
+    drop = "" if design.options.get("matrix") else ".dropna()"
+    return [f"# {name} picks {what}; only those come back.",
+            f"d = {sample_expr(src, cols, k, n, complete=not design.options.get('matrix'), finite=fin, frame=frame)}",
+            f"d = pd.DataFrame({{{items}}}, copy=False){drop}"]
+
+
 def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     """Build ``d``: the used columns under their labels, converted, missing rows dropped."""
+    if profile.source is not None:
+        lines = engine_lines(design, profile, frame)
+        for col in design.options.get("log_columns", ()):
+            if engine_mode(design) == "rows":
+                lines.append(f"d = d[d[{col!r}] > 0]")
+        return lines
     items = ", ".join(f"{label!r}: {column_expr(profile.fields[label], frame)}"
                       for label in design.columns)
     # A correlation matrix uses every pairwise-complete row; other designs drop incomplete rows.
@@ -663,7 +764,12 @@ def design_code(design: Design, name: str = "df", profile: Profile | None = None
     if profile is None:
         raise ValueError("this design was not made by plotwise.advise(); no profile to read")
     title = short(design.title, 60)
-    lines = HEADER + [
+    header = HEADER
+    if profile.source is not None:
+        from .sources import open_code
+
+        header = HEADER[:-1] + open_code(profile.source, name) + [""]
+    lines = header + [
         f"# {short(design.summary(), 90)}",
         "fig, ax = plt.subplots(figsize=(6, 4), layout=\"constrained\")",
     ] + body_lines(design, profile, name) + [

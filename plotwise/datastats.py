@@ -192,21 +192,30 @@ def is_binary(f) -> bool:
 
 
 def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat: str,
-                 log_scale: bool = False, w: pd.DataFrame | None = None) -> dict:
+                 log_scale: bool = False, w: pd.DataFrame | None = None, exact=None) -> dict:
     """The numbers the scorer's data-fit rules and the hazard checks read. Totals, means, counts
     and missing rows are exact; checks on individual points (overplotting, fits, modes, bin
-    shapes) use the same seeded sample the drawing uses on large frames."""
+    shapes) use the same seeded sample the drawing uses on large frames.
+
+    ``exact`` (a sources.EngineStats) is given when an engine holds the data: then ``df`` is a
+    seeded sample and the exact counts and grouped sums come from the engine."""
     cols = [c for c in dict.fromkeys([x, y, hue]) if c]
     w = working_frame(df, profile, cols) if w is None else w[cols]
     complete = all(profile.fields[c].missing + profile.fields[c].infinite == 0
                    and not profile.fields[c].parse_dates for c in cols)
     used = w if complete else w.dropna()
     out: dict = {"points": int(len(used)), "left_out": int(len(w) - len(used)), "rows": int(len(w))}
+    if exact is not None:
+        out["points"] = exact.complete(cols)
+        out["rows"] = profile.rows
+        out["left_out"] = profile.rows - out["points"]
     pts = point_sample(used)
-    out["sampled"] = len(pts) < len(used)
+    out["sampled"] = len(pts) < out["points"]
     ym = y if (y and profile.fields[y].level == "quantitative") else None
+    others = tuple(c for c in cols if c not in (x, ym))
     if task in ("compare", "proportion", "trend") and x:
-        g = grouped(used, x, ym, profile.fields[x].labels)
+        g = (exact.grouped(x, ym, others) if exact is not None
+             else grouped(used, x, ym, profile.fields[x].labels))
         use = "sum" if task == "proportion" else stat
         if ym is None or use == "count":
             v = g["count"]
@@ -231,7 +240,8 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
     if hue:
         out["hue_labels"] = sorted(str(v) for v in pd.unique(used[hue]))
     if task == "trend" and x and pd.api.types.is_datetime64_any_dtype(used[x].dtype):
-        t = pd.Series(used[x].unique()).sort_values()
+        t = pd.Series(out["values"].index if exact is not None and "values" in out
+                      else used[x].unique()).sort_values()
         steps = t.diff().dropna()
         if len(steps) >= 2:
             out["time_gaps"] = int((steps > 1.5 * steps.median()).sum())
@@ -255,10 +265,11 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
         out["reversal"] = rate_reversal(used, x, ym, hue)
     if task == "distribution":
         if hue:
-            sizes = used.groupby(hue, observed=True).size()
+            sizes = (pd.Series(exact.grouped(hue, None, (x,))["count"]) if exact is not None
+                     else used.groupby(hue, observed=True).size())
             out["min_group_n"] = int(sizes.min()) if len(sizes) else 0
         else:
-            out["min_group_n"] = int(len(used))
+            out["min_group_n"] = int(out["points"])
     if task == "correlate" and x and y and profile.fields[x].level == "quantitative" \
             and profile.fields[y].level == "quantitative":
         xv = pts[x].to_numpy(dtype=float)

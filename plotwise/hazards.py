@@ -473,10 +473,11 @@ def _reversal(ctx: HazardContext) -> list[Hazard]:
 def _sampled(ctx: HazardContext) -> list[Hazard]:
     d = ctx.design
     note = d.options.get("note")
-    if not note:
-        return []
-    if d.options.get("sample"):
-        msg = (f"the {d.kind} shows a seeded random sample of {d.options['sample'][1]:,} of the "
+    if not note or ctx.stats.get("points", 0) <= THRESHOLDS["draw_sample_above"]:
+        return []  # small data: the note only says where the numbers came from
+    k = d.options["sample"][1] if d.options.get("sample") else d.options.get("engine_sample")
+    if k and k < ctx.stats.get("points", 0):
+        msg = (f"the {d.kind} shows a seeded random sample of {k:,} of the "
                f"{ctx.stats.get('points', 0):,} rows (drawing every row would be slow and hide "
                "points behind each other); its shape is representative, single points are not.")
         fix = "filter to the rows you care about to see every point, or use the binned designs"

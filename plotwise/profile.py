@@ -68,6 +68,7 @@ class Profile:
     rows: int
     fields: dict[str, FieldProfile]
     sample_rows: int | None = None
+    source: object | None = None  # a sources.Source when an engine holds the data; None: pandas
 
     def __getitem__(self, label: str) -> FieldProfile:
         return self.fields[label]
@@ -80,8 +81,8 @@ def check_frame(df) -> None:
     """Raise PlotwiseError for frames the engine cannot read."""
     if not isinstance(df, pd.DataFrame):
         raise PlotwiseError(
-            f"plotwise needs a pandas DataFrame, got {type(df).__name__}; "
-            "wrap your data with pandas.DataFrame(...) first."
+            f"plotwise cannot read a {type(df).__name__}; pass a pandas, Polars, Dask or Spark "
+            "DataFrame, a PyArrow Table, a DuckDB relation, or the path of a Parquet or CSV file."
         )
     if isinstance(df.columns, pd.MultiIndex):
         raise PlotwiseError(

@@ -38,13 +38,15 @@ def plot_style():
             yield
 
 
-def draw(design: Design, df: pd.DataFrame, ax: Axes, profile: Profile | None = None) -> Axes:
+def draw(design: Design, df, ax: Axes, profile: Profile | None = None) -> Axes:
     """Draw one design on the caller's Axes (small multiples subdivide its area)."""
     profile = profile or design.profile
     if profile is None:
         raise PlotwiseError("this design was not made by plotwise.advise(); call advise() first.")
     code = "\n".join(body_lines(design, profile, "df"))
     namespace = {"pd": pd, "np": np, "sns": sns, "ax": ax, "df": df}
+    if profile.source is not None:  # engine data: the queries need the engine's namespace
+        namespace.update({k: v for k, v in profile.source.namespace().items() if k != "df"})
     try:
         with plot_style():
             exec(compile(code, f"<plotwise {design.kind}>", "exec"), namespace)  # noqa: S102

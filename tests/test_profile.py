@@ -89,7 +89,7 @@ def test_profile_does_not_change_frame():
 @pytest.mark.parametrize("bad,words", [
     (pd.DataFrame(), "no rows"),
     (pd.DataFrame({"a": []}), "no rows"),
-    ([1, 2, 3], "needs a pandas DataFrame"),
+    ([1, 2, 3], "cannot read a list"),
     (pd.DataFrame([[1, 2]], columns=pd.MultiIndex.from_tuples([("a", "b"), ("a", "c")])), "flatten"),
     (pd.DataFrame([[1, 2]], columns=["a", "a"]), "duplicate column names"),
 ])
