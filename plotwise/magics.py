@@ -34,9 +34,22 @@ def say_error(message: str) -> None:
     print(f"plotwise: {message}", file=sys.stderr)
 
 
-def frames_in(ns: dict) -> list[tuple[str, pd.DataFrame]]:
-    return [(k, v) for k, v in ns.items()
-            if isinstance(v, pd.DataFrame) and not k.startswith("_")]
+def is_frame(v) -> bool:
+    """A pandas DataFrame or data held by an engine plotwise reads (Polars, PyArrow, DuckDB,
+    Dask, Spark)."""
+    from .sources import is_engine_data
+
+    return isinstance(v, pd.DataFrame) or is_engine_data(v)
+
+
+def frames_in(ns: dict) -> list[tuple[str, object]]:
+    return [(k, v) for k, v in ns.items() if not k.startswith("_") and is_frame(v)]
+
+
+def _size(v) -> str:
+    if isinstance(v, pd.DataFrame):
+        return f"{v.shape[0]}×{v.shape[1]}"
+    return f"{type(v).__module__.split('.')[0]} {type(v).__name__}"
 
 
 def frame_listing(ns: dict) -> str:
@@ -44,7 +57,7 @@ def frame_listing(ns: dict) -> str:
     if not frames:
         return "there are no DataFrames in the namespace."
     return "DataFrames in the namespace: " + ", ".join(
-        f"{k} ({v.shape[0]}×{v.shape[1]})" for k, v in frames[:20])
+        f"{k} ({_size(v)})" for k, v in frames[:20])
 
 
 def name_of(frame: pd.DataFrame, ns: dict, default: str = "df") -> str:
@@ -151,14 +164,16 @@ class PlotwiseMagics(Magics):
                              + frame_listing(ns))
         name = rest[0]
         frame = ns.get(name)
+        if frame is None and name.lower().endswith((".parquet", ".pq", ".csv", ".tsv", ".csv.gz")):
+            frame = name  # a file path: DuckDB scans it
         if frame is None:
             say_error(f"no variable named {name!r}; " + frame_listing(ns))
             return None
-        if not isinstance(frame, pd.DataFrame):
-            say_error(f"{name!r} is a {type(frame).__name__}, not a pandas DataFrame; "
+        if not (is_frame(frame) or isinstance(frame, str)):
+            say_error(f"{name!r} is a {type(frame).__name__}, not a DataFrame; "
                       + frame_listing(ns))
             return None
-        self._advise(frame, args, task, name)
+        self._advise(frame, args, task, name if name.isidentifier() else "df")
         return None
 
     @magic_arguments("%plotwise")
@@ -184,16 +199,16 @@ class PlotwiseMagics(Magics):
             self.shell.showtraceback()
             return None
         frame, name = None, "df"
-        if isinstance(value, pd.DataFrame):
+        if is_frame(value):
             frame, name = value, name_of(value, ns)
-        elif isinstance(value, (tuple, list)) and sum(isinstance(v, pd.DataFrame) for v in value) > 1:
+        elif isinstance(value, (tuple, list)) and sum(is_frame(v) for v in value) > 1:
             say_error("the cell returns several DataFrames; return one, or name it on the magic "
                       "line. " + frame_listing(ns))
             return None
         elif rest:
             frame = ns.get(rest[0])
             name = rest[0]
-            if not isinstance(frame, pd.DataFrame):
+            if not is_frame(frame):
                 what = "not a DataFrame in the namespace" if rest[0] in ns else (
                     f"neither a task ({', '.join(TASKS)}) nor a variable")
                 say_error(f"{rest[0]!r} is {what}; " + frame_listing(ns))

@@ -74,6 +74,13 @@ class Source:
 # ----------------------------------------------------------------------------------------------
 # Recognising the input
 # ----------------------------------------------------------------------------------------------
+def is_engine_data(obj) -> bool:
+    """Is ``obj`` a frame of one of the engines plotwise reads (checked without importing them)?"""
+    module = type(obj).__module__.split(".")[0]
+    return module in ("polars", "pyarrow", "duckdb", "pyspark", "dask", "dask_expr") and \
+        type(obj).__name__ in ("DataFrame", "LazyFrame", "Table", "DuckDBPyRelation")
+
+
 def open_source(data) -> Source | None:
     """A Source for engine data; None for a pandas DataFrame (the in-memory path)."""
     if isinstance(data, pd.DataFrame):

@@ -77,7 +77,7 @@ def test_line_magic_and_errors(fresh):
     fresh.user_ns["numbers"] = [1, 2, 3]
     with capture_output() as c:
         fresh.run_line_magic("plotwise", "compare numbers")
-    assert "not a pandas DataFrame" in c.stderr
+    assert "is a list, not a DataFrame" in c.stderr
     with capture_output() as c:
         fresh.run_line_magic("plotwise", "compare grunfeld --x nope")
     assert c.stderr.startswith("plotwise: no column named 'nope'")
@@ -129,3 +129,27 @@ def test_panel_shown_by_default(fresh):
     bundle = outputs(c)[0]
     assert "application/vnd.jupyter.widget-view+json" in bundle
     assert "text/html" in bundle and "image/png" in bundle  # static fallback for exports
+
+
+def test_magics_take_engine_data_and_file_paths(fresh, tmp_path):
+    """A Polars frame returned by the cell, and a Parquet path on the magic line (scanned by
+    DuckDB), are advised on like a pandas frame; the code then reads the same engine."""
+    import polars as pl
+
+    with capture_output() as c:
+        fresh.run_cell_magic("plotwise", "compare --x firm --y invest --static",
+                             "import polars as pl\nlazy = pl.from_pandas(grunfeld).lazy()\nlazy")
+    assert not c.stderr, c.stderr
+    a = plotwise.last()
+    assert a.engine == "Polars" and a.profile.rows == 220
+    assert isinstance(fresh.user_ns["lazy"], pl.LazyFrame)
+    path = tmp_path / "grunfeld.parquet"
+    grunfeld().to_parquet(path)
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", f"compare {path} --x firm --y invest --static")
+    assert not c.stderr, c.stderr
+    a = plotwise.last()
+    assert a.engine == "DuckDB" and f"duckdb.read_parquet({str(path)!r})" in a.code(0)
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "compare missing.parquet --static")
+    assert "no file at 'missing.parquet'" in c.stderr
