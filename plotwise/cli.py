@@ -1,6 +1,12 @@
-"""Command line: ``plotwise audit script.py`` runs a plotting script with a non-interactive
-backend and audits every figure it creates. Exit 0: no severe hazard; 1: a severe hazard was
-found; 2: the script could not be run."""
+"""Command line.
+
+``plotwise audit script.py`` runs a plotting script with a non-interactive backend and audits
+every figure it creates. Exit 0: no severe hazard; 1: a severe hazard was found; 2: the script
+could not be run.
+
+``plotwise advise data.parquet --task compare --x region --y revenue --out advice.html`` advises
+on a Parquet or CSV file, scanned lazily by DuckDB, and writes a self-contained HTML page.
+Exit 0: page written; 2: the file, a column or an option could not be used."""
 
 from __future__ import annotations
 
@@ -59,6 +65,31 @@ def cmd_audit(args) -> int:
     return worst
 
 
+def cmd_advise(args) -> int:
+    from .advice import advise
+    from .display import page_html
+    from .errors import PlotwiseError
+
+    try:
+        a = advise(args.file, args.task, x=args.x, y=args.y, hue=args.hue, agg=args.agg,
+                   top=args.top)
+        page = page_html(a, f"plotwise advice for {Path(args.file).name}")
+    except PlotwiseError as exc:
+        print(f"plotwise: {exc}", file=sys.stderr)
+        return 2
+    out = Path(args.out)
+    try:
+        out.parent.mkdir(parents=True, exist_ok=True)
+        out.write_text(page, encoding="utf-8")
+    except OSError as exc:
+        print(f"plotwise: cannot write {out}: {exc.strerror or exc}", file=sys.stderr)
+        return 2
+    best = ", ".join(d.title for d in a.shown())
+    print(f"plotwise: wrote {out} ({a.engine}, {a.profile.rows:,} rows; top: {best}; "
+          f"{len(a.hazards)} hazards)")
+    return 0
+
+
 def main(argv=None) -> int:
     parser = argparse.ArgumentParser(prog="plotwise", description="Chart advice and chart audits.")
     sub = parser.add_subparsers(dest="command", required=True)
@@ -66,6 +97,21 @@ def main(argv=None) -> int:
                                      "exit 1 when a severe hazard is found")
     p.add_argument("script", help="path to a Python script that draws with matplotlib/seaborn/pandas")
     p.set_defaults(func=cmd_audit)
+    from .rules import TASKS
+
+    p = sub.add_parser("advise", help="advise on a Parquet or CSV file (scanned by DuckDB) and "
+                                      "write a self-contained HTML page")
+    p.add_argument("file", help="path to a .parquet/.pq or .csv/.tsv/.csv.gz file")
+    p.add_argument("--task", choices=TASKS, default=None,
+                   help="what the chart is for (left out: ranked across all tasks)")
+    p.add_argument("--x", help="column on the first axis (inferred when left out)")
+    p.add_argument("--y", help="the measure column (inferred when left out)")
+    p.add_argument("--hue", help="column shown by colour")
+    p.add_argument("--agg", choices=("sum", "mean", "median", "count"),
+                   help="how rows are combined per category")
+    p.add_argument("--top", type=int, default=3, help="designs drawn side by side (default 3)")
+    p.add_argument("--out", default="advice.html", help="the HTML page to write (default advice.html)")
+    p.set_defaults(func=cmd_advise)
     args = parser.parse_args(argv)
     return args.func(args)
 

@@ -99,7 +99,7 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
              f"<h4>plotwise advice — task: {_e(advice.task or 'any')} "
              f"({advice.profile.rows} rows, {len(advice.profile.fields)} columns)</h4>"]
     if advice.notes:
-        parts.append("<p>Chosen: " + "; ".join(_e(n) for n in advice.notes) + "</p>")
+        parts.append("<p>Notes: " + "; ".join(_e(n) for n in advice.notes) + "</p>")
     if advice.headline:
         parts.append(f"<p class='pw-headline'><b>In one sentence:</b> {_e(advice.headline)}</p>")
     if image:
@@ -133,3 +133,18 @@ def advice_bundle(advice: Advice) -> dict:
         "text/html": advice_html(advice, png=png),
         "image/png": base64.b64encode(png).decode("ascii"),
     }
+
+
+def page_html(advice: Advice, title: str) -> str:
+    """A self-contained HTML page (figures inline as PNG, no scripts, no links out): the advice,
+    the column profile and the code of each shown design. Readable offline."""
+    code = "".join(
+        f"<details><summary>Code for {i}. {_e(d.title)}</summary><pre>{_e(d.code())}</pre></details>"
+        for i, d in enumerate(advice.shown(), 1))
+    return ("<!DOCTYPE html><html lang='en'><head><meta charset='utf-8'>"
+            f"<title>{_e(title)}</title><meta name='viewport' content='width=device-width'>"
+            "<style>body{font-family:system-ui,sans-serif;margin:24px;max-width:1400px}"
+            "img{max-width:100%;height:auto}pre{background:#f6f6f6;padding:8px;overflow-x:auto;"
+            "font-size:12px}</style></head><body>"
+            f"<h2>{_e(title)}</h2>" + advice_html(advice, image=True, profile=True) + code
+            + "</body></html>\n")

@@ -126,13 +126,14 @@ def open_file(path) -> Source:
     import duckdb
 
     reader = "read_parquet" if fmt == "parquet" else "read_csv"
+    word = "Parquet" if fmt == "parquet" else "CSV"
     try:
         rel = getattr(duckdb, reader)(str(p))
         columns = [str(c) for c in rel.columns]
     except Exception as exc:
-        raise PlotwiseError(f"could not read {p.name!r} as {fmt.upper()}: "
+        raise PlotwiseError(f"could not read {p.name!r} as {word}: "
                             f"{str(exc).splitlines()[0][:300]}") from exc
-    return _checked(Source(rel, "duckdb", f"{fmt.upper()} file {p.name!r}", columns,
+    return _checked(Source(rel, "duckdb", f"{word} file {p.name!r}", columns,
                            path=str(p), file_format=fmt))
 
 

@@ -265,7 +265,7 @@ def test_unreadable_inputs_are_clear_errors(bad, message):
 def test_broken_parquet_file_is_a_clear_error(tmp_path):
     p = tmp_path / "broken.parquet"
     p.write_bytes(b"not a parquet file at all")
-    with pytest.raises(plotwise.PlotwiseError, match="could not read 'broken.parquet' as PARQUET"):
+    with pytest.raises(plotwise.PlotwiseError, match="could not read 'broken.parquet' as Parquet"):
         plotwise.advise(str(p), "compare")
 
 
@@ -281,3 +281,42 @@ def test_engine_data_is_not_changed(to_engine):
     before = df.clone()
     plotwise.advise(df, "compare", x="firm", y="invest").show()
     assert df.equals(before)
+
+
+def test_cli_writes_a_self_contained_page(tmp_path, capsys):
+    import re
+    import subprocess
+    import sys
+
+    from plotwise.cli import main
+
+    data = tmp_path / "grunfeld.parquet"
+    grunfeld().to_parquet(data)
+    out = tmp_path / "pages" / "advice.html"
+    argv = ["advise", str(data), "--task", "compare", "--x", "firm", "--y", "invest", "--out", str(out)]
+    assert main(argv) == 0
+    assert "wrote" in capsys.readouterr().out
+    page = out.read_text(encoding="utf-8")
+    assert page.startswith("<!DOCTYPE html>") and page.rstrip().endswith("</html>")
+    assert len(re.findall(r"src='data:image/png;base64,", page)) == 1
+    assert "<script" not in page and not re.search(r"(src|href)=['\"]https?:", page)
+    for part in ("Hazards", "All candidate designs", "DuckDB computed", "skewed",
+                 "duckdb.read_parquet", "heuristic"):
+        assert part in page, part
+    # Errors: exit 2 and one readable line.
+    assert main(["advise", str(data), "--x", "nope", "--out", str(out)]) == 2
+    assert "no column named 'nope'" in capsys.readouterr().err
+    assert main(["advise", str(tmp_path / "absent.parquet"), "--out", str(out)]) == 2
+    assert "no file at" in capsys.readouterr().err
+    bad = tmp_path / "notes.txt"
+    bad.write_text("hello")
+    assert main(["advise", str(bad), "--out", str(out)]) == 2
+    assert "plotwise reads Parquet" in capsys.readouterr().err
+    # The installed entry point (python -m plotwise) does the same.
+    csv = tmp_path / "grunfeld.csv"
+    grunfeld().to_csv(csv, index=False)
+    run = subprocess.run([sys.executable, "-m", "plotwise", "advise", str(csv), "--task", "trend",
+                          "--out", str(tmp_path / "trend.html")], capture_output=True, text=True,
+                         timeout=300)
+    assert run.returncode == 0, run.stderr
+    assert (tmp_path / "trend.html").stat().st_size > 10_000
