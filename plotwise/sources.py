@@ -128,7 +128,10 @@ def open_file(path) -> Source:
     reader = "read_parquet" if fmt == "parquet" else "read_csv"
     word = "Parquet" if fmt == "parquet" else "CSV"
     try:
-        rel = getattr(duckdb, reader)(str(p))
+        # plotwise's own in-memory connection, quiet (no progress bar in the notebook).
+        con = duckdb.connect()
+        con.execute("SET enable_progress_bar = false")
+        rel = getattr(con, reader)(str(p))
         columns = [str(c) for c in rel.columns]
     except Exception as exc:
         raise PlotwiseError(f"could not read {p.name!r} as {word}: "
@@ -341,8 +344,10 @@ def distinct_values(src: Source, col: str, limit: int) -> list | None:
         vals = src.native[col].dropna().unique().compute()
         vals = list(vals)
     else:
-        expr = (f"nw.from_native(df).lazy().select({[col]!r}).drop_nulls().unique()"
-                f".head({limit + 1}).collect(\"pandas\").to_native()")
+        # A hash aggregate (streams in every engine) rather than unique(), which some engines
+        # run as a window over all rows.
+        expr = (f"nw.from_native(df).lazy().select({[col]!r}).drop_nulls().group_by({[col]!r})"
+                f".agg(nw.len()).head({limit + 1}).collect(\"pandas\").to_native()")
         vals = list(src.run(expr).iloc[:, 0])
     vals = [v for v in vals if v == v]  # NaN in a float column is not a label
     return None if len(vals) > limit else vals

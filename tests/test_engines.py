@@ -320,3 +320,57 @@ def test_cli_writes_a_self_contained_page(tmp_path, capsys):
                          timeout=300)
     assert run.returncode == 0, run.stderr
     assert (tmp_path / "trend.html").stat().st_size > 10_000
+
+
+BIG_ROWS = 30_000_000
+MEMORY_BOUND_MB = 800  # generous: measured ~470 MB on the 2-core CI machine
+
+
+@pytest.fixture(scope="session")
+def big_parquet(tmp_path_factory):
+    """A generated Parquet file of 30 million rows, written in chunks once per run."""
+    import sys
+    from pathlib import Path
+
+    sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "benchmarks"))
+    from bigfile import write_parquet
+
+    return write_parquet(tmp_path_factory.mktemp("big") / "big.parquet", BIG_ROWS)
+
+
+def test_file_larger_than_the_memory_bound_is_advised_through_duckdb(big_parquet):
+    """Advice and drawing on a 30-million-row file in a fresh process: peak resident memory
+    stays under MEMORY_BOUND_MB although the data alone, loaded as Arrow columns, would take
+    more than that (as pandas, with text as Python strings, several times more)."""
+    import json
+    import subprocess
+    import sys
+
+    import pyarrow.parquet as pq
+
+    meta = pq.ParquetFile(big_parquet).metadata
+    assert meta.num_rows == BIG_ROWS
+    # Arrow in memory: three float64 columns, date32 days, int32 dictionary codes = 32 B a row.
+    loaded_mb = BIG_ROWS * (3 * 8 + 4 + 4) / 2 ** 20
+    assert loaded_mb > MEMORY_BOUND_MB
+    script = (
+        "import io, json, sys\n"
+        "import plotwise\n"
+        "a = plotwise.advise(sys.argv[1], 'compare', x='region', y='amount')\n"
+        "fig = a.show(); fig.savefig(io.BytesIO(), format='png')\n"
+        "bar = a.design('bar')\n"
+        # VmHWM: this address space's peak (ru_maxrss can carry the parent's peak over exec).
+        "hwm = [ln for ln in open('/proc/self/status') if ln.startswith('VmHWM')][0]\n"
+        "print(json.dumps({'peak_mb': int(hwm.split()[1]) / 1024,\n"
+        "  'rows': a.profile.rows, 'engine': a.engine, 'note': bar.options['note'],\n"
+        "  'missing': a.fields['amount'].missing, 'labels': len(a.fields['region'].labels)}))\n")
+    run = subprocess.run([sys.executable, "-c", script, str(big_parquet)], capture_output=True,
+                         text=True, timeout=600, env={**__import__("os").environ, "MPLBACKEND": "Agg"})
+    assert run.returncode == 0, run.stderr[-2000:]
+    out = json.loads(run.stdout.strip().splitlines()[-1])
+    print(f"\n30M-row Parquet through DuckDB: peak resident memory {out['peak_mb']:.0f} MB "
+          f"(bound {MEMORY_BOUND_MB} MB; Arrow columns alone {loaded_mb:.0f} MB)")
+    assert out["engine"] == "DuckDB" and out["rows"] == BIG_ROWS
+    assert out["labels"] == 12 and out["missing"] == 0
+    assert out["note"] == f"DuckDB computed the totals of all {BIG_ROWS:,} rows"
+    assert out["peak_mb"] < MEMORY_BOUND_MB
