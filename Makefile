@@ -40,6 +40,7 @@ lint: $(STAMP)
 
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py
+	MPLBACKEND=Agg $(BIN)/python benchmarks/engines.py
 
 clean:
 	rm -rf $(VENV) build
