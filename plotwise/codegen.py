@@ -511,7 +511,7 @@ def _engine_histogram(c: Ctx) -> list[str]:
     """Engine data: the engine counts every row into the bins plotwise chose; only the counts
     come back. ``counts`` is set by the engine lines (see engine_lines)."""
     d = c.d
-    lo, width, k, log = d.options["edges"]
+    lo, width, k, log = engine_bins(d)
     edges = f"np.linspace({lo!r}, {lo + width * k!r}, {k + 1})"
     lines = [f"edges = 10 ** {edges}" if log else f"edges = {edges}",
              f"{c.ax}.stairs(counts, edges, fill=True, color={MAIN_COLOUR!r}, alpha=0.75)",
@@ -644,6 +644,16 @@ def engine_mode(design: Design) -> str:
     return "rows"
 
 
+def engine_bins(design: Design) -> tuple:
+    """(low, width, count, log) of an engine histogram's bins; a whole number in
+    ``options['bins']`` (the panel's slider) splits the same range into that many bins."""
+    lo, width, k, log = design.options["edges"]
+    want = design.options.get("bins")
+    if isinstance(want, int) and want > 0 and want != k:
+        width, k = width * k / want, want
+    return lo, width, k, log
+
+
 def engine_count_name(design: Design) -> str:
     from .sources import count_name
 
@@ -665,7 +675,7 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     n = design.options.get("complete_rows", 0)
     quantitative = [c for c in design.columns if profile.fields[c].level == "quantitative"]
     if mode == "bins":
-        lo, width, k, log = design.options["edges"]
+        lo, width, k, log = engine_bins(design)
         return [f"# {name} counts all {n:,} rows into {k} bins; only the counts come back.",
                 f"counts = {bins_expr(src, design.x, lo, width, k, log, frame)}",
                 f"counts = counts.reindex(range({k}), fill_value=0).to_numpy()"]

@@ -14,6 +14,8 @@ in-memory path unchanged."""
 from __future__ import annotations
 
 import os
+import warnings
+from contextlib import contextmanager
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -58,7 +60,8 @@ class Source:
     def run(self, expr: str):
         """Evaluate one engine expression built by the functions below."""
         try:
-            return eval(compile(expr, f"<plotwise {self.engine} query>", "eval"), self.namespace())  # noqa: S307
+            with quiet():
+                return eval(compile(expr, f"<plotwise {self.engine} query>", "eval"), self.namespace())  # noqa: S307
         except PlotwiseError:
             raise
         except Exception as exc:
@@ -69,6 +72,17 @@ class Source:
     def note(self, what: str) -> None:
         if what not in self.computed:
             self.computed.append(what)
+
+
+@contextmanager
+def quiet():
+    """Hide the version chatter engines print while plotwise queries them (PySpark warns about
+    pandas 3 on every conversion); the user's own calls keep their warnings."""
+    with warnings.catch_warnings():
+        warnings.filterwarnings("ignore", message="PySpark does not yet fully support pandas")
+        warnings.filterwarnings("ignore", message="Dask support is moving out of Narwhals")
+        warnings.filterwarnings("ignore", message="The copy keyword is deprecated")
+        yield
 
 
 # ----------------------------------------------------------------------------------------------
@@ -285,7 +299,8 @@ def column_moments(src: Source, numeric: dict[str, float], others: list[str],
             lazy.update({(c, "finite"): v.count(), (c, "min"): v.min(), (c, "max"): v.max(),
                          (c, "s1"): d.sum(), (c, "s2"): (d ** 2).sum(), (c, "s3"): (d ** 3).sum()})
         keys = list(lazy)
-        values = dask.compute(*[lazy[k] for k in keys])
+        with quiet():
+            values = dask.compute(*[lazy[k] for k in keys])
         for (c, what), v in zip(keys, values):
             out.setdefault(c, {})[what] = float(v) if v is not None else None
         return out
@@ -312,7 +327,8 @@ def column_moments(src: Source, numeric: dict[str, float], others: list[str],
         add(d.sum(), c, "s1")
         add((d * d).sum(), c, "s2")
         add((d * d * d).sum(), c, "s3")
-    frame = nw.from_native(src.native).lazy().select(*exprs).collect("pandas").to_native()
+    with quiet():
+        frame = nw.from_native(src.native).lazy().select(*exprs).collect("pandas").to_native()
     row = frame.iloc[0]
     for i, (c, what) in enumerate(names):
         v = row.iloc[i]
@@ -341,8 +357,7 @@ def moments_to_stats(m: dict, centre: float) -> dict:
 def distinct_values(src: Source, col: str, limit: int) -> list | None:
     """Every distinct non-missing value of ``col`` when there are at most ``limit``; else None."""
     if src.engine == "dask":
-        vals = src.native[col].dropna().unique().compute()
-        vals = list(vals)
+        vals = list(src.run(f"df[{col!r}].dropna().unique().compute()"))
     else:
         # A hash aggregate (streams in every engine) rather than unique(), which some engines
         # run as a window over all rows.

@@ -374,3 +374,24 @@ def test_file_larger_than_the_memory_bound_is_advised_through_duckdb(big_parquet
     assert out["labels"] == 12 and out["missing"] == 0
     assert out["note"] == f"DuckDB computed the totals of all {BIG_ROWS:,} rows"
     assert out["peak_mb"] < MEMORY_BOUND_MB
+
+
+def test_engine_histogram_follows_a_chosen_bin_count(to_engine):
+    """The panel's bins slider sets a whole number of bins; the engine counts into that many
+    equal bins over the same range."""
+    from dataclasses import replace
+
+    df = iris()
+    a = plotwise.advise(to_engine(df, "duckdb"), "distribution", x="sepal width (cm)")
+    h = a.design("histogram")
+    lo, width, k, _ = h.options["edges"]
+    h7 = replace(h, options={**h.options, "bins": 7})
+    fig = plt.figure()
+    try:
+        a.draw(h7, ax=fig.subplots())
+        data = fig.axes[0].patches[0].get_data()
+    finally:
+        plt.close(fig)
+    want, edges = np.histogram(df["sepal width (cm)"], bins=7, range=(lo, lo + width * k))
+    np.testing.assert_allclose(data.edges, edges)
+    np.testing.assert_array_equal(data.values, want)
