@@ -273,6 +273,17 @@ def bins_expr(src: Source, col: str, lo: float, width: float, k: int, log: bool 
 # ----------------------------------------------------------------------------------------------
 # What the engine computes for the advice
 # ----------------------------------------------------------------------------------------------
+def column_types(src: Source) -> dict[str, str]:
+    """Each column's type as the engine names it."""
+    if src.engine == "dask":
+        return {str(c): str(t) for c, t in src.native.dtypes.items()}
+    import narwhals as nw
+
+    with quiet():
+        schema = nw.from_native(src.native).lazy().collect_schema()
+    return {str(c): str(t) for c, t in schema.items()}
+
+
 def row_count(src: Source) -> int:
     if src.engine == "dask":
         return len(src.native)
@@ -389,9 +400,13 @@ def profile_source(src: Source):
     src.note(f"row count ({n:,}), missing values, min, max, mean, spread and skewness of every "
              "column, exact")
     fields = {}
+    types = column_types(src)
     for position, name in enumerate(src.columns):
         fp = profile_series(sample[name], name)
         fp.position = position
+        if types.get(name):  # the engine's own type name, not the sample's pandas dtype
+            fp.dtype = types[name]
+            fp.evidence[0] = f"{types[name]} column in {src.engine_name}"
         fields[name] = fp
     numeric = {c: (fp.mean if fp.mean is not None else 0.0) for c, fp in fields.items()
                if fp.minimum is not None and not fp.is_timedelta}
