@@ -86,6 +86,17 @@ def tour():
         new_markdown_cell("## Two summers, pier by pier\n\nWith two time points per pier, "
                           "slope and difference charts come first:"),
         advice_cell("%plotwise compare seasons --x pier --y weekday_passengers", []),
+        new_markdown_cell("## Data that does not fit in pandas\n\nGive plotwise the path of a "
+                          "Parquet or CSV file (or a Polars, DuckDB, Dask or Spark frame) and the "
+                          "engine computes the statistics and the drawn totals where the data "
+                          "lives; only small results come back. Here the sailings table stands in "
+                          "for a file too big for memory:"),
+        new_code_cell("import os, tempfile\n"
+                      "sailings_file = os.path.join(tempfile.mkdtemp(), 'sailings.parquet')\n"
+                      "sailings.to_parquet(sailings_file)"),
+        advice_cell("%plotwise compare $sailings_file --x pier --y fare_revenue", ["skewed"]),
+        new_markdown_cell("The code runs the same query in DuckDB, then draws the small result:"),
+        new_code_cell("print(plotwise.last().designs[0].code())"),
         new_markdown_cell("## Take the code\n\n`%plotwise code N` puts the code of design N of "
                           "the last advice into the next cell. The same code is available as "
                           "`plotwise.last().designs[N - 1].code()`:"),
