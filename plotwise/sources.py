@@ -155,6 +155,12 @@ def open_file(path) -> Source:
 
 
 def _checked(src: Source) -> Source:
+    dotted = [c for c in src.columns if "." in c or "`" in c]
+    if src.engine == "spark" and dotted:
+        raise PlotwiseError(
+            f"Spark reads a dot (or backtick) in a column name as a path into a struct, so it "
+            f"cannot select {dotted[:5]}; rename them first, e.g. df = df.toDF(*[c.replace('.', "
+            "'_').replace('`', '') for c in df.columns]).")
     if not src.columns:
         raise PlotwiseError(f"the {src.kind} has no columns; advise on data with columns in it.")
     dupes = sorted({c for c in src.columns if src.columns.count(c) > 1})

@@ -395,3 +395,15 @@ def test_engine_histogram_follows_a_chosen_bin_count(to_engine):
     want, edges = np.histogram(df["sepal width (cm)"], bins=7, range=(lo, lo + width * k))
     np.testing.assert_allclose(data.edges, edges)
     np.testing.assert_array_equal(data.values, want)
+
+
+def test_spark_awkward_column_names(spark):
+    """Spaces and quotes in Spark column names work; a dot (a struct path to Spark) is refused
+    with a way out."""
+    rng = np.random.default_rng(0)
+    pdf = pd.DataFrame({"x y": rng.choice(list("abc"), 200), "it's": rng.normal(size=200)})
+    a = plotwise.advise(spark.createDataFrame(pdf), "compare", x="x y", y="it's")
+    b = plotwise.advise(pdf, "compare", x="x y", y="it's")
+    assert signature(a) == signature(b) and a.hazard_codes() == b.hazard_codes()
+    with pytest.raises(plotwise.PlotwiseError, match="rename them first"):
+        plotwise.advise(spark.createDataFrame(pd.DataFrame({"a.b": [1.0, 2.0]})), "distribution")
