@@ -232,7 +232,9 @@ def engine_edges(sample: np.ndarray, n: int, f: FieldProfile, rule: str, log: bo
             k = int(np.ceil(span / (2 * (q75 - q25) * n ** (-1 / 3))))
     k = int(min(max(k, 1), 200))
     width = span / k if span > 0 else 1.0
-    return float(lo), float(width), k, bool(log)
+    # 12 significant digits: readable in the generated code, far below any drawn difference
+    # (values a rounding puts outside the range are counted in the end bins).
+    return float(f"{lo:.12g}"), float(f"{width:.12g}"), k, bool(log)
 
 
 def _mark_single_values(df, profile: Profile, designs: list[Design], exact=None) -> None:

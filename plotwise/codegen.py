@@ -667,7 +667,7 @@ def engine_keys(design: Design) -> list[str]:
 
 def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     """Engine data: the query that runs in the engine, then ``d`` (or ``counts``) in pandas."""
-    from .sources import bins_expr, grouped_expr, sample_expr
+    from .sources import bins_expr, chained, grouped_expr, sample_expr
 
     src = profile.source
     name = src.engine_name
@@ -677,7 +677,7 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     if mode == "bins":
         lo, width, k, log = engine_bins(design)
         return [f"# {name} counts all {n:,} rows into {k} bins; only the counts come back.",
-                f"counts = {bins_expr(src, design.x, lo, width, k, log, frame)}",
+                f"counts = {chained(bins_expr(src, design.x, lo, width, k, log, frame), 9)}",
                 f"counts = counts.reindex(range({k}), fill_value=0).to_numpy()"]
     if mode == "groups":
         keys = engine_keys(design)
@@ -685,7 +685,7 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
         stat = "median" if design.stat == "median" else "sum"
         cnt = engine_count_name(design)
         lines = [f"# {name} computes one row per group from all {n:,} rows; only those come back.",
-                 f"agg = {grouped_expr(src, keys, measure, stat, finite=measure in quantitative, frame=frame)}"]
+                 f"agg = {chained(grouped_expr(src, keys, measure, stat, finite=measure in quantitative, frame=frame), 6)}"]
         items = [f"{c!r}: {column_expr(profile.fields[c], 'agg')}" for c in keys]
         if measure:
             items.append(f"{measure!r}: agg[{measure!r}].astype(\"float64\")")
@@ -699,7 +699,7 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     items = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in cols)
     drop = "" if design.options.get("matrix") else ".dropna()"
     return [f"# {name} picks {what}; only those come back.",
-            f"d = {sample_expr(src, cols, k, n, complete=not design.options.get('matrix'), finite=fin, frame=frame)}",
+            f"d = {chained(sample_expr(src, cols, k, n, complete=not design.options.get('matrix'), finite=fin, frame=frame), 4)}",
             f"d = pd.DataFrame({{{items}}}, copy=False){drop}"]
 
 

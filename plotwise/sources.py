@@ -182,6 +182,46 @@ def open_code(src: Source, name: str = "df") -> list[str]:
 # ----------------------------------------------------------------------------------------------
 # Engine expressions (source text). ``df`` names the native data; each returns pandas.
 # ----------------------------------------------------------------------------------------------
+def chained(expr: str, indent: int) -> str:
+    """A long method chain split at its top-level calls, one per line, inside parentheses (how
+    people write engine queries by hand); short expressions stay on one line."""
+    if len(expr) + indent <= 100:
+        return expr
+    parts, depth, quote, start = [], 0, None, 0
+    for i, ch in enumerate(expr):
+        if quote:
+            if ch == quote and expr[i - 1] != "\\":
+                quote = None
+        elif ch in "'\"":
+            quote = ch
+        elif ch in "([{":
+            depth += 1
+        elif ch in ")]}":
+            depth -= 1
+        elif ch == "." and depth == 0 and i and expr[i - 1] in ")]":
+            parts.append(expr[start:i])
+            start = i
+    parts.append(expr[start:])
+    if len(parts) == 1:
+        return expr
+    pad = "\n" + " " * (indent + 1)
+    return "(" + pad.join(parts) + ")"
+
+
+def _keyword(name: str, value: str) -> str:
+    """A keyword argument ``name=value``, or ``**{'name': value}`` when name is no identifier."""
+    import keyword
+
+    if name.isidentifier() and not keyword.iskeyword(name):
+        return f"{name}={value}"
+    return f"**{{{name!r}: {value}}}"
+
+
+def _minus(value: float) -> str:
+    """``- value`` written the way a person would (``+ 0.5`` rather than ``- -0.5``)."""
+    return f"- {value!r}" if value >= 0 else f"+ {-value!r}"
+
+
 def _fresh(name: str, taken) -> str:
     while name in taken:
         name += "_"
@@ -220,12 +260,12 @@ def grouped_expr(src: Source, keys: list[str], y: str | None, stat: str = "sum",
     sq = _fresh(f"{y}_squares", set(cols)) if (y and squares) else None
     base = complete_rows(src, cols, fin, frame)
     if src.engine == "dask":
-        parts = [f"{n}=({(y or keys[0])!r}, 'count')"]
+        parts = [_keyword(n, f"({(y or keys[0])!r}, 'count')")]
         if y:
-            parts.append(f"**{{{y!r}: ({y!r}, {('median' if stat == 'median' else 'sum')!r})}}")
+            parts.append(_keyword(y, f"({y!r}, {('median' if stat == 'median' else 'sum')!r})"))
         if sq:
-            base += f".assign(**{{{sq!r}: lambda t: t[{y!r}] ** 2}})"
-            parts.append(f"**{{{sq!r}: ({sq!r}, 'sum')}}")
+            base += f".assign({_keyword(sq, f'lambda t: t[{y!r}] ** 2')})"
+            parts.append(_keyword(sq, f"({sq!r}, 'sum')"))
         return (f"{base}.groupby({keys!r}, observed=True).agg({', '.join(parts)})"
                 ".compute().reset_index()")
     aggs = [f"nw.len().alias({n!r})"]
@@ -267,11 +307,11 @@ def bins_expr(src: Source, col: str, lo: float, width: float, k: int, log: bool 
     if src.engine == "dask":
         v = f"np.log10(t[{col!r}])" if log else f"t[{col!r}]"
         cut = f".pipe(lambda t: t[t[{col!r}] > 0])" if log else ""
-        return (f"{base}{cut}.assign(bin=lambda t: np.floor(({v} - {lo!r}) / {width!r})"
+        return (f"{base}{cut}.assign(bin=lambda t: np.floor(({v} {_minus(lo)}) / {width!r})"
                 f".clip(0, {k - 1}).astype('int64')).groupby('bin').size().compute()")
     v = f"nw.col({col!r}).log(10)" if log else f"nw.col({col!r})"
     cut = f".filter(nw.col({col!r}) > 0)" if log else ""
-    return (f"{base}{cut}.select((({v} - {lo!r}) / {width!r}).floor().clip(0, {k - 1})"
+    return (f"{base}{cut}.select((({v} {_minus(lo)}) / {width!r}).floor().clip(0, {k - 1})"
             f".cast(nw.Int64).alias('bin')).group_by('bin').agg(nw.len())"
             '.collect("pandas").to_native().set_index("bin")["len"]')
 
