@@ -34,6 +34,7 @@ class Advice:
     request: dict = field(default_factory=dict)  # the arguments advise() was called with
     headline: str | None = None  # one sentence, when a single number says it better than a chart
     _df: object | None = field(default=None, repr=False, compare=False)  # pandas or engine data
+    _input: object | None = field(default=None, repr=False, compare=False)  # what advise() got
 
     @property
     def fields(self) -> dict[str, FieldProfile]:
@@ -416,6 +417,7 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     matplotlib Colormap) for lightness encodings. Both are drawn and checked (colour-vision
     deficiency, lightness).
     """
+    data = df
     task = _check_task(task)
     if agg is not None and agg not in AGGS:
         raise PlotwiseError(f"unknown agg {agg!r}; use one of: {', '.join(AGGS)}.")
@@ -492,4 +494,4 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
                      f"{src.kind}: " + "; ".join(src.computed) + ". Checks on single points "
                      "(overplotting, fits, modes) used a seeded sample.")
     return Advice(task=task, profile=profile, designs=ranked, hazards=hazards, notes=notes,
-                  top=top, request=request, headline=headline, _df=df)
+                  top=top, request=request, headline=headline, _df=df, _input=data)

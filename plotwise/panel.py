@@ -31,7 +31,8 @@ class AdvicePanel(widgets.VBox):
     def __init__(self, advice: Advice, frame_name: str = "df"):
         self.advice = advice
         self.frame_name = frame_name if frame_name.isidentifier() else "df"
-        self._frame = advice._frame()
+        # Re-advise on what the caller gave (a file path stays a path, so the code opens it).
+        self._frame = advice._input if advice._input is not None else advice._frame()
         self._busy = False
         req = advice.request
         auto = [("(auto)", None)]

@@ -71,3 +71,16 @@ def test_static_fallback_in_bundle(panel):
     bundle = panel._repr_mimebundle_()
     assert "application/vnd.jupyter.widget-view+json" in bundle
     assert "<img" in bundle["text/html"] and bundle["image/png"]
+
+
+def test_panel_on_a_parquet_file_keeps_reading_the_file(tmp_path):
+    """A panel on advice for a file path re-advises through DuckDB on the same file when the
+    task changes, and its code keeps opening that file."""
+    path = tmp_path / "grunfeld.parquet"
+    grunfeld().to_parquet(path)
+    p = AdvicePanel(plotwise.advise(str(path), "compare", x="firm", y="invest"))
+    p.task.value = "trend"
+    p.x.value = "year"
+    assert p.advice.engine == "DuckDB" and p.advice.task == "trend"
+    assert f"duckdb.read_parquet({str(path)!r})" in p.code.value
+    assert plt.get_fignums() == []
