@@ -145,6 +145,10 @@ THRESHOLDS = {
     # (distinct values, skew, integer checks, labels) come from a seeded sample of this many
     # rows when the frame is larger...
     "profile_sample": 200_000,
+    # Engine data: the profile sample brings every column back, so wide tables get fewer rows:
+    # at most this many cells (about 160 MB of numbers), never fewer rows than "draw_sample"
+    # (our own memory budget).
+    "engine_sample_cells": 20_000_000,
     # ...and designs that draw every point (scatter, strip, box, violin, density, ECDF) draw a
     # seeded random sample of "draw_sample" rows when the data has more than "draw_sample_above".
     "draw_sample": 20_000,

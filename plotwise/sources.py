@@ -439,7 +439,8 @@ def profile_source(src: Source):
     n = row_count(src)
     if n == 0:
         raise PlotwiseError(f"the {src.kind} has no rows; advise on data with rows in it.")
-    k = THRESHOLDS["profile_sample"]
+    k = min(THRESHOLDS["profile_sample"],
+            max(THRESHOLDS["draw_sample"], THRESHOLDS["engine_sample_cells"] // len(src.columns)))
     sample = src.run(sample_expr(src, src.columns, k, n, complete=False))
     sample = sample.reset_index(drop=True)
     check_frame(sample)

@@ -411,3 +411,17 @@ def test_spark_awkward_column_names(spark):
     assert signature(a) == signature(b) and a.hazard_codes() == b.hazard_codes()
     with pytest.raises(plotwise.PlotwiseError, match="rename them first"):
         plotwise.advise(spark.createDataFrame(pd.DataFrame({"a.b": [1.0, 2.0]})), "distribution")
+
+
+def test_wide_engine_table_gets_a_smaller_profile_sample(to_engine):
+    """Above THRESHOLDS['engine_sample_cells'] the profile sample shrinks so that all columns of
+    a wide table fit the budget; counts stay exact."""
+    from plotwise.rules import THRESHOLDS
+
+    rng = np.random.default_rng(5)
+    n, width = 60_000, 400
+    df = pd.DataFrame(rng.normal(size=(n, width)), columns=[f"c{i}" for i in range(width)])
+    a = plotwise.advise(to_engine(df, "duckdb"), "distribution", x="c0")
+    expected = max(THRESHOLDS["draw_sample"], THRESHOLDS["engine_sample_cells"] // width)
+    assert a.profile.sample_rows == expected < n
+    assert a.profile.rows == n and a.fields["c7"].mean == pytest.approx(df["c7"].mean(), abs=1e-12)
