@@ -9,6 +9,7 @@ Dask also each worker's). Writes build/bench/engines.csv and prints a table.
 
     python benchmarks/engines.py
     BENCH_ENGINE_ROWS=1e7 python benchmarks/engines.py
+    BENCH_ENGINES=dask python benchmarks/engines.py    # one engine only
 """
 
 from __future__ import annotations
@@ -75,7 +76,9 @@ def main() -> None:
         write_parquet(path, rows)
         print(f"wrote {path.name} ({path.stat().st_size / 2**30:.2f} GiB) in {time.perf_counter() - t:.0f} s")
     results = []
-    plan = [("duckdb", t) for t in TASKS] + [("dask", t) for t in dask_tasks]
+    engines = os.environ.get("BENCH_ENGINES", "duckdb,dask").split(",")
+    plan = ([("duckdb", t) for t in TASKS] if "duckdb" in engines else []) + \
+        ([("dask", t) for t in dask_tasks] if "dask" in engines else [])
     for engine, task in plan:
         run = subprocess.run([sys.executable, "-c", RUN, engine, str(path), task, json.dumps(TASKS[task])],
                              capture_output=True, text=True, timeout=3600)

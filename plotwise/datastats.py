@@ -205,17 +205,20 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
                    and not profile.fields[c].parse_dates for c in cols)
     used = w if complete else w.dropna()
     out: dict = {"points": int(len(used)), "left_out": int(len(w) - len(used)), "rows": int(len(w))}
+    ym = y if (y and profile.fields[y].level == "quantitative") else None
+    others = tuple(c for c in cols if c not in (x, ym))
+    grouping = task in ("compare", "proportion", "trend") and x
     if exact is not None:
-        out["points"] = exact.complete(cols)
+        # With a grouping, the complete rows are the sum of the group sizes (one engine query).
+        g = exact.grouped(x, ym, others) if grouping else None
+        out["points"] = int(g["count"].sum()) if grouping else exact.complete(cols)
         out["rows"] = profile.rows
         out["left_out"] = profile.rows - out["points"]
     pts = point_sample(used)
     out["sampled"] = len(pts) < out["points"]
-    ym = y if (y and profile.fields[y].level == "quantitative") else None
-    others = tuple(c for c in cols if c not in (x, ym))
-    if task in ("compare", "proportion", "trend") and x:
-        g = (exact.grouped(x, ym, others) if exact is not None
-             else grouped(used, x, ym, profile.fields[x].labels))
+    if grouping:
+        if exact is None:
+            g = grouped(used, x, ym, profile.fields[x].labels)
         use = "sum" if task == "proportion" else stat
         if ym is None or use == "count":
             v = g["count"]

@@ -337,10 +337,12 @@ def row_count(src: Source) -> int:
 
 
 def column_moments(src: Source, numeric: dict[str, float], others: list[str],
-                   floats: set[str]) -> dict[str, dict]:
+                   floats: set[str], labels: tuple = ()) -> dict[str, dict]:
     """Exact per-column counts in one pass: missing values for every column; for the numeric
     ones also the finite count, min, max and the sums of (x − c)^1..3 about ``c`` (a centre
-    taken from the sample, which keeps the power sums numerically stable)."""
+    taken from the sample, which keeps the power sums numerically stable). Dask also collects
+    the distinct values of the ``labels`` columns in the same pass (every Dask query rereads
+    the data); other engines answer distinct_values() separately."""
     out: dict[str, dict] = {}
     if src.engine == "dask":
         import dask
@@ -355,11 +357,16 @@ def column_moments(src: Source, numeric: dict[str, float], others: list[str],
             d = v - centre
             lazy.update({(c, "finite"): v.count(), (c, "min"): v.min(), (c, "max"): v.max(),
                          (c, "s1"): d.sum(), (c, "s2"): (d ** 2).sum(), (c, "s3"): (d ** 3).sum()})
+        for c in labels:
+            lazy[(c, "labels")] = df[c].dropna().unique()
         keys = list(lazy)
         with quiet():
             values = dask.compute(*[lazy[k] for k in keys])
         for (c, what), v in zip(keys, values):
-            out.setdefault(c, {})[what] = float(v) if v is not None else None
+            if what == "labels":
+                out.setdefault(c, {})[what] = [u for u in v if u == u]
+            else:
+                out.setdefault(c, {})[what] = float(v) if v is not None else None
         return out
     import narwhals as nw
 
@@ -458,8 +465,11 @@ def profile_source(src: Source):
     numeric = {c: (fp.mean if fp.mean is not None else 0.0) for c, fp in fields.items()
                if fp.minimum is not None and not fp.is_timedelta}
     floats = {c for c in src.columns if pd.api.types.is_float_dtype(sample[c].dtype)}
-    moments = column_moments(src, numeric, [c for c in src.columns if c not in numeric], floats)
     limit = THRESHOLDS["max_categories"]
+    few = tuple(c for c, fp in fields.items()
+                if n > len(sample) and fp.distinct <= limit and fp.level != "quantitative")
+    moments = column_moments(src, numeric, [c for c in src.columns if c not in numeric], floats,
+                             few)
     for c, fp in fields.items():
         m = moments.get(c, {})
         fp.rows = n
@@ -471,8 +481,10 @@ def profile_source(src: Source):
             fp.mean, fp.std = stats["mean"], stats["std"]
             if stats["skew"] is not None and fp.skew is not None:
                 fp.skew = stats["skew"]
-        if n > len(sample) and fp.distinct <= limit and fp.level != "quantitative":
-            labels = distinct_values(src, c, limit)
+        if c in few:
+            labels = m.get("labels") if src.engine == "dask" else distinct_values(src, c, limit)
+            if labels is not None and len(labels) > limit:
+                labels = None
             if labels is not None:
                 fp.distinct = len(labels)
                 if fp.labels:
