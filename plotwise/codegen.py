@@ -403,7 +403,17 @@ def _heatmap(c: Ctx) -> list[str]:
         return _correlation_matrix(c)
     if d.task == "correlate":
         if c.f(d.x) and c.f(d.x).level == "quantitative":
-            return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, bins=25, cmap={c.cmap()}, "
+            # Whole numbers with few levels get one cell per value (25 bins would leave stripes).
+            discrete = tuple(bool(c.f(v) and c.f(v).is_discrete) for v in (d.x, d.y))
+            if not any(discrete):
+                bins = "bins=25"
+            elif all(discrete):
+                bins = "discrete=True"
+            else:  # one edge per whole number on the discrete axis, 25 bins on the other
+                per = [f"np.arange({c.data}[{v!r}].min() - 0.5, {c.data}[{v!r}].max() + 1.5)"
+                       if disc else "25" for v, disc in zip((d.x, d.y), discrete)]
+                bins = f"discrete={discrete!r}, bins=({per[0]}, {per[1]})"
+            return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, {bins}, cmap={c.cmap()}, "
                     f"cbar=True, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                     ] + _labels(c, d.x, d.y) + _style(c, None)
         return [f"t = pd.crosstab({c.data}[{d.y!r}], {c.data}[{d.x!r}])",

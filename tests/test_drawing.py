@@ -128,3 +128,21 @@ def test_draw_on_callers_axes_and_no_pyplot_figures():
     a.show()
     a.draw("area")
     assert len(plt.get_fignums()) == n
+
+
+def test_two_d_histogram_gives_a_whole_number_axis_one_cell_per_value():
+    """Fair's affairs data (Fair 1978, shipped with statsmodels): education is a whole number with
+    six levels; the 2-D histogram puts one cell column on each level instead of 25 bins that
+    leave empty stripes between them."""
+    import statsmodels.api as sm
+    from matplotlib.collections import QuadMesh
+
+    d = sm.datasets.fair.load_pandas().data
+    a = plotwise.advise(d, "correlate", x="educ", y="affairs")
+    assert a.fields["educ"].is_discrete
+    fig = Figure()
+    a.draw(a.design("heatmap"), ax=fig.subplots())
+    mesh = [c for c in fig.axes[0].collections if isinstance(c, QuadMesh)][0]
+    xs = np.unique(mesh.get_coordinates()[..., 0])
+    levels = np.sort(d["educ"].unique())
+    np.testing.assert_allclose(xs, np.arange(levels.min() - 0.5, levels.max() + 1.5))
