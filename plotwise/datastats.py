@@ -142,7 +142,8 @@ def category_codes(values: pd.Series, known: tuple = ()) -> tuple[np.ndarray, pd
     """Integer codes of a category column. With the profile's labels known, codes come from a
     lookup in a table of those few labels (a fraction of the memory of hashing every row); any
     value not among them falls back to a full factorisation, so the result is always exact."""
-    if known:
+    arrow = getattr(values.dtype, "storage", None) == "pyarrow" or isinstance(values.dtype, pd.ArrowDtype)
+    if known and not arrow:  # (Arrow-backed text factorizes in Arrow, cheaper than any lookup)
         try:
             labels = pd.Index(sorted(known))
         except TypeError:
