@@ -128,7 +128,11 @@ class AdvicePanel(widgets.VBox):
             self.advice = advise(self._frame, self.task.value, x=self.x.value, y=self.y.value,
                                  hue=self.hue.value, top=self.advice.top)
         except PlotwiseError as exc:
-            self.message.value = f"<span style='color:#B00020'>{_escape(exc)}</span>"
+            shown = self.advice.request
+            cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))
+            self.message.value = (f"<span style='color:#B00020'>{_escape(exc)}</span><br>"
+                                  f"<i>Still showing the previous advice ({_escape(self.advice.task or 'any task')}"
+                                  f"{'; ' + _escape(cols) if cols else ''}).</i>")
             return
         self.message.value = ""
         self._show_advice()

@@ -51,6 +51,8 @@ def test_swap_column(panel):
 def test_bad_choice_shows_message_not_traceback(panel):
     panel.y.value = "firm"  # text is not a measure
     assert "firm" in panel.message.value and "Traceback" not in panel.message.value
+    # The reader is told that what is still on screen is the earlier advice.
+    assert "Still showing the previous advice (compare; x = firm, y = invest)" in panel.message.value
     assert panel.advice.designs[0].y == "invest"  # the previous advice stays
 
 
