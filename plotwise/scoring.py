@@ -301,7 +301,7 @@ def score_design(design: Design, profile: Profile, stats: dict) -> Design:
 
 
 STAT_WORDS = {
-    "sum": "total", "mean": "average", "count": "count of rows", "share": "share",
+    "sum": "total", "mean": "average", "median": "median", "count": "count of rows", "share": "share",
     "raw": "values", "value": "values", "distribution": "distribution",
 }
 
@@ -310,7 +310,7 @@ def _headline(design: Design, profile: Profile) -> str:
     k = design.kind
     what = STAT_WORDS.get(design.stat, design.stat)
     y = design.y
-    measure = f"{what} of '{y}'" if y and design.stat in ("sum", "mean", "value") else (
+    measure = f"{what} of '{y}'" if y and design.stat in ("sum", "mean", "median", "value") else (
         f"'{y}'" if y else "row counts")
     x = design.x
     if k in ("bar", "dot"):

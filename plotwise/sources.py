@@ -251,11 +251,13 @@ def count_name(keys, y=None) -> str:
 
 
 def grouped_expr(src: Source, keys: list[str], y: str | None, stat: str = "sum",
-                 squares: bool = False, finite: bool = True, frame: str = "df") -> str:
+                 squares: bool = False, finite: bool = True, frame: str = "df",
+                 complete_in: tuple = ()) -> str:
     """One row per group of ``keys``: the row count (column ``count_name``), and for ``y`` its
-    sum (or median), and with ``squares`` the sum of squares (column ``y + '_squares'``)."""
+    sum (or median), and with ``squares`` the sum of squares (column ``y + '_squares'``). Rows
+    missing a value in keys, y or ``complete_in`` are left out."""
     n = count_name(keys, y)
-    cols = list(dict.fromkeys(keys + ([y] if y else [])))
+    cols = list(dict.fromkeys(keys + ([y] if y else []) + list(complete_in)))
     fin = (y,) if (y and finite) else ()
     sq = _fresh(f"{y}_squares", set(cols)) if (y and squares) else None
     base = complete_rows(src, cols, fin, frame)
@@ -268,6 +270,12 @@ def grouped_expr(src: Source, keys: list[str], y: str | None, stat: str = "sum",
             parts.append(_keyword(sq, f"({sq!r}, 'sum')"))
         return (f"{base}.groupby({keys!r}, observed=True).agg({', '.join(parts)})"
                 ".compute().reset_index()")
+    if src.engine == "pyarrow" and stat == "median" and y:
+        # PyArrow's grouped median is approximate (a t-digest); the table is in memory, so the
+        # used columns go to pandas for an exact median.
+        return (f"{_to_pandas(src, base)}.groupby({keys!r}, observed=True)"
+                f".agg({_keyword(n, repr((y, 'count')))}, {_keyword(y, repr((y, 'median')))})"
+                ".reset_index()")
     aggs = [f"nw.len().alias({n!r})"]
     if y:
         aggs.append(f"nw.col({y!r}).{'median' if stat == 'median' else 'sum'}()")
@@ -551,6 +559,19 @@ class EngineStats:
             out["sum"] = t["sum"].to_numpy()
             out["sumsq"] = t["sumsq"].to_numpy()
         return out
+
+    def medians(self, x: str, y: str, others: tuple = ()) -> pd.Series:
+        """The median of ``y`` per group of ``x``, computed by the engine (rows complete in x, y
+        and ``others``)."""
+        from .datastats import working_frame
+
+        raw = self.src.run(grouped_expr(self.src, [x], y, stat="median",
+                                        finite=bool(self._finite([y])), complete_in=others))
+        w = working_frame(raw, self.profile, [x])
+        w["median"] = raw[y].to_numpy(dtype=float)
+        # One row per group unless x has several raw values for one label (text parsed as the
+        # same date, say): then the median of their medians, a close stand-in.
+        return w.dropna(subset=[x]).groupby(x, observed=True, sort=True)["median"].median()
 
     def unique_keys(self, keys: list[str], y: str) -> bool:
         """Does every group of ``keys`` hold exactly one complete row?"""

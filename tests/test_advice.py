@@ -177,3 +177,14 @@ def test_nothing_the_task_can_use():
     with pytest.raises(PlotwiseError, match="no task fits"):
         plotwise.advise(only_text)
     assert issubclass(PlotwiseError, ValueError)
+
+
+def test_median_headline_reports_medians_not_totals():
+    """With agg='median' the one-sentence headline gives each group's median (checked against
+    pandas on Grunfeld 1958); it used to report totals without saying so."""
+    g = grunfeld()
+    a = plotwise.advise(g, "compare", x="firm", y="invest", agg="median")
+    med = g.groupby("firm")["invest"].median()
+    assert a.headline.startswith(f"'{med.idxmax()}' has the highest median 'invest' ({med.max():.4g})")
+    assert f"'{med.idxmin()}', the lowest ({med.min():.3g})" in a.headline
+    assert a.designs[0].summary().startswith("bar chart of median of 'invest'")

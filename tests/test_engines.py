@@ -101,6 +101,7 @@ def with_gaps() -> pd.DataFrame:
 CASES = kind_cases() + [
     (with_gaps(), dict(task="compare", x="firm", y="invest")),
     (with_gaps(), dict(task="trend", x="year", y="invest", agg="mean")),
+    (with_gaps(), dict(task="compare", x="firm", y="invest", agg="median")),
     (with_gaps(), dict(task="distribution", x="invest")),
     (iris(), dict(task="correlate", x="petal length (cm)", y="petal width (cm)", hue="species")),
 ]
