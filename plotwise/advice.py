@@ -8,7 +8,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 import pandas as pd
 
-from .datastats import choose_bins, design_stats, skewed, working_frame
+from .datastats import choose_bins, design_stats, engine_edges, skewed, working_frame
 from .designs import Design, candidates, choose_roles
 from .errors import PlotwiseError
 from .hazards import SEVERITIES, Hazard, HazardContext, run_checks
@@ -205,8 +205,9 @@ def _engine_options(d: Design, stats: dict, profile: Profile, working, bins) -> 
         d.options["note"] = f"{name} computed the {what} of all {n:,} rows"
     elif mode == "bins":
         f = profile.fields[d.x]
-        d.options["edges"] = engine_edges(working[d.x].dropna().to_numpy(dtype=float), n, f,
-                                          bins[0] if bins else "fd", skewed(f))
+        d.options["edges"] = engine_edges(working[d.x].dropna().to_numpy(dtype=float), n,
+                                          f.minimum, f.maximum, bins[0] if bins else "fd",
+                                          skewed(f))
         d.options["note"] = f"{name} counted all {n:,} rows into bins"
     else:
         k = d.options.get("sample", (0, THRESHOLDS["bin_sample"]))[1]
@@ -214,28 +215,6 @@ def _engine_options(d: Design, stats: dict, profile: Profile, working, bins) -> 
         d.options.pop("sample", None)
         d.options["note"] = (f"random sample of about {k:,} of {n:,} rows, drawn by {name}"
                              if n > k else f"all {n:,} rows, fetched from {name}")
-
-
-def engine_edges(sample: np.ndarray, n: int, f: FieldProfile, rule: str, log: bool) -> tuple:
-    """Histogram bins for engine data: (low, width, count, log). The Freedman–Diaconis width
-    2·IQR·n^(-1/3) takes the IQR from the seeded sample and n, min and max exact from the
-    engine; Sturges ⌈log2 n⌉ + 1 uses the exact n. At most 200 bins (common practice)."""
-    lo, hi = f.minimum, f.maximum
-    v = sample[np.isfinite(sample)]
-    if log:
-        lo, hi = np.log10(lo), np.log10(hi)
-        v = np.log10(v[v > 0])
-    span = hi - lo
-    k = int(np.ceil(np.log2(max(n, 1))) + 1)
-    if rule == "fd" and len(v) > 1:
-        q25, q75 = np.percentile(v, [25, 75])
-        if q75 > q25 and span > 0:
-            k = int(np.ceil(span / (2 * (q75 - q25) * n ** (-1 / 3))))
-    k = int(min(max(k, 1), 200))
-    width = span / k if span > 0 else 1.0
-    # 12 significant digits: readable in the generated code, far below any drawn difference
-    # (values a rounding puts outside the range are counted in the end bins).
-    return float(f"{lo:.12g}"), float(f"{width:.12g}"), k, bool(log)
 
 
 def _mark_single_values(df, profile: Profile, designs: list[Design], exact=None) -> None:

@@ -427,16 +427,13 @@ def moments_to_stats(m: dict, centre: float) -> dict:
 
 
 def distinct_values(src: Source, col: str, limit: int) -> list | None:
-    """Every distinct non-missing value of ``col`` when there are at most ``limit``; else None."""
-    if src.engine == "dask":
-        vals = list(src.run(f"df[{col!r}].dropna().unique().compute()"))
-    else:
-        # A hash aggregate (streams in every engine) rather than unique(), which some engines
-        # run as a window over all rows.
-        expr = (f"nw.from_native(df).lazy().select({[col]!r}).drop_nulls().group_by({[col]!r})"
-                f".agg(nw.len()).head({limit + 1}).collect(\"pandas\").to_native()")
-        vals = list(src.run(expr).iloc[:, 0])
-    vals = [v for v in vals if v == v]  # NaN in a float column is not a label
+    """Every distinct non-missing value of ``col`` when there are at most ``limit``; else None.
+    (Dask gets its labels in column_moments' single pass instead.)"""
+    # A hash aggregate (streams in every engine) rather than unique(), which some engines run as
+    # a window over all rows.
+    expr = (f"nw.from_native(df).lazy().select({[col]!r}).drop_nulls().group_by({[col]!r})"
+            f".agg(nw.len()).head({limit + 1}).collect(\"pandas\").to_native()")
+    vals = [v for v in src.run(expr).iloc[:, 0] if v == v]  # NaN in a float column is no label
     return None if len(vals) > limit else vals
 
 
