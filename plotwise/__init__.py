@@ -6,32 +6,32 @@
     advice.show()    # matplotlib Figure with the top three side by side
 """
 
-from .advice import Advice, advise
-from .designs import KINDS, Design
-from .errors import PlotwiseError
-from .hazards import HAZARD_CHECKS, Hazard, hazard_codes
-from .profile import FieldProfile, Profile, profile_frame
-from .rules import TASKS
+from plotwise.advice import Advice, advise
+from plotwise.engine.candidates import KINDS, Design
+from plotwise.engine.hazards import HAZARD_CHECKS, Hazard, hazard_codes
+from plotwise.engine.profile import FieldProfile, Profile, profile_frame
+from plotwise.engine.rules import TASKS
+from plotwise.errors import PlotwiseError
 
 __version__ = "0.1.0"
 
 
 def last():
     """The Advice from the most recent %plotwise / %%plotwise in this session (or None)."""
-    from .magics import last as _last
+    from plotwise.notebook.magics import last as _last
 
     return _last()
 
 
 def load_ipython_extension(ipython):
     """``%load_ext plotwise``: register the %plotwise and %%plotwise magics."""
-    from .magics import load_ipython_extension as _load
+    from plotwise.notebook.magics import load_ipython_extension as _load
 
     _load(ipython)
 
 
 def unload_ipython_extension(ipython):
-    from .magics import unload_ipython_extension as _unload
+    from plotwise.notebook.magics import unload_ipython_extension as _unload
 
     _unload(ipython)
 

@@ -8,13 +8,13 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 import pandas as pd
 
-from .datastats import choose_bins, design_stats, engine_edges, skewed, working_frame
-from .designs import Design, candidates, choose_roles
-from .errors import PlotwiseError
-from .hazards import SEVERITIES, Hazard, HazardContext, run_checks
-from .profile import FieldProfile, Profile, profile_frame
-from .rules import TASKS, THRESHOLDS
-from .scoring import rank, score_design
+from plotwise.engine.candidates import Design, candidates, choose_roles
+from plotwise.engine.datastats import choose_bins, design_stats, engine_edges, skewed, working_frame
+from plotwise.engine.hazards import SEVERITIES, Hazard, HazardContext, run_checks
+from plotwise.engine.profile import FieldProfile, Profile, profile_frame
+from plotwise.engine.rules import TASKS, THRESHOLDS
+from plotwise.engine.scoring import rank, score_design
+from plotwise.errors import PlotwiseError
 
 # Kinds that draw raw values on a position axis and so can take a log axis for skewed data.
 LOG_KINDS = ("histogram", "density", "ecdf", "box", "violin", "strip", "scatter", "hexbin")
@@ -61,7 +61,7 @@ class Advice:
 
     def show(self, top: int | None = None):
         """A matplotlib Figure with the top designs side by side (not shown through pyplot)."""
-        from .render import draw_row
+        from plotwise.drawing.render import draw_row
 
         return draw_row(self.shown(top), self._frame())
 
@@ -69,7 +69,7 @@ class Advice:
         """Draw one design (index, kind or Design) on ``ax``; a new Figure when ax is None."""
         from matplotlib.figure import Figure
 
-        from .render import PANEL_HEIGHT_IN, PANEL_WIDTH_IN, draw, plot_style
+        from plotwise.drawing.render import PANEL_HEIGHT_IN, PANEL_WIDTH_IN, draw, plot_style
 
         d = self._pick(which)
         if ax is None:
@@ -122,12 +122,12 @@ class Advice:
 
     # Display ---------------------------------------------------------------------------------
     def text(self) -> str:
-        from .display import advice_text
+        from plotwise.notebook.display import advice_text
 
         return advice_text(self)
 
     def html(self, image: bool = True, profile: bool = False) -> str:
-        from .display import advice_html
+        from plotwise.notebook.display import advice_html
 
         return advice_html(self, image=image, profile=profile)
 
@@ -140,7 +140,7 @@ class Advice:
                 f"{len(self.hazards)} hazards>")
 
     def _repr_mimebundle_(self, include=None, exclude=None):
-        from .display import advice_bundle
+        from plotwise.notebook.display import advice_bundle
 
         return advice_bundle(self)
 
@@ -169,7 +169,7 @@ def _check_range(value_range):
 def _large_data_options(d: Design, stats: dict) -> None:
     """On large data, point designs draw a seeded sample and histograms are binned first; every
     such panel says what it drew (a note on the panel and the `sampled` hazard)."""
-    from .rules import POINT_KINDS
+    from plotwise.engine.rules import POINT_KINDS
 
     n = stats.get("points", 0)
     big, k = THRESHOLDS["draw_sample_above"], THRESHOLDS["draw_sample"]
@@ -194,7 +194,7 @@ def _large_data_options(d: Design, stats: dict) -> None:
 
 def _engine_options(d: Design, stats: dict, profile: Profile, working, bins) -> None:
     """Engine data: which rows each design's query brings back, and the panel note saying so."""
-    from .codegen import engine_mode
+    from plotwise.drawing.codegen import engine_mode
 
     n = stats.get("points", 0)
     name = profile.source.engine_name
@@ -250,7 +250,7 @@ def _strongest_pairs(df, profile: Profile, cols: list[str], k: int = 3) -> str:
 
 
 def _colour_reason(d: Design, profile: Profile) -> str | None:
-    from .colour import scheme_for
+    from plotwise.engine.colour import scheme_for
 
     if "hue" in d.encoding and d.encoding["hue"] in profile.fields and d.kind != "pie":
         f = profile.fields[d.encoding["hue"]]
@@ -289,7 +289,7 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
     extra_reasons: dict[int, list[str]] = {}
     cmap_name = None
     if cmap is not None:
-        from .colour import resolve_cmap
+        from plotwise.engine.colour import resolve_cmap
 
         cmap_name = resolve_cmap(cmap).name
     bins = None
@@ -335,8 +335,8 @@ def _advise_task(df, profile, task, x, y, hue, agg, value_range, palette=None, c
 
 
 def _headline(ctx: HazardContext, roles, designs: list[Design]) -> str | None:
-    from .headline import change_headline, compare_headline, proportion_headline
-    from .scoring import STAT_WORDS
+    from plotwise.engine.headline import change_headline, compare_headline, proportion_headline
+    from plotwise.engine.scoring import STAT_WORDS
 
     f = ctx.profile.fields
     share_like = bool(ctx.y and f[ctx.y].share_like)
@@ -402,7 +402,7 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
         raise PlotwiseError(f"unknown agg {agg!r}; use one of: {', '.join(AGGS)}.")
     value_range = _check_range(value_range)
     if palette is not None:
-        from .colour import to_rgb_array
+        from plotwise.engine.colour import to_rgb_array
 
         if isinstance(palette, str) or len(palette) < 2:
             raise PlotwiseError("palette must be a list of at least two colours, e.g. "
@@ -410,12 +410,12 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
         to_rgb_array(palette)
         palette = [str(c) for c in palette]
     if cmap is not None:
-        from .colour import resolve_cmap
+        from plotwise.engine.colour import resolve_cmap
 
         resolve_cmap(cmap)
     if not isinstance(top, int) or top < 1:
         raise PlotwiseError("top must be a whole number ≥ 1.")
-    from .sources import EngineStats, open_source, profile_source
+    from plotwise.sources.engines import EngineStats, open_source, profile_source
 
     src = open_source(df)
     exact = None
@@ -424,7 +424,7 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     else:  # an engine holds the data: profile there, work on a seeded sample here
         profile, df = profile_source(src)
         exact = EngineStats(src, profile)
-    from .designs import check_roles
+    from plotwise.engine.candidates import check_roles
 
     check_roles(profile, x, y, hue)
     tasks = [task] if task else list(TASKS)

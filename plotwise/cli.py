@@ -38,7 +38,7 @@ def run_script(path: Path) -> list:
 
 
 def cmd_audit(args) -> int:
-    from .audit import audit
+    from plotwise.audit.figure import audit
 
     path = Path(args.script)
     if not path.is_file():
@@ -66,9 +66,9 @@ def cmd_audit(args) -> int:
 
 
 def cmd_advise(args) -> int:
-    from .advice import advise
-    from .display import page_html
-    from .errors import PlotwiseError
+    from plotwise.advice import advise
+    from plotwise.errors import PlotwiseError
+    from plotwise.notebook.display import page_html
 
     try:
         a = advise(args.file, args.task, x=args.x, y=args.y, hue=args.hue, agg=args.agg,
@@ -97,7 +97,7 @@ def main(argv=None) -> int:
                                      "exit 1 when a severe hazard is found")
     p.add_argument("script", help="path to a Python script that draws with matplotlib/seaborn/pandas")
     p.set_defaults(func=cmd_audit)
-    from .rules import TASKS
+    from plotwise.engine.rules import TASKS
 
     p = sub.add_parser("advise", help="advise on a Parquet or CSV file (scanned by DuckDB) and "
                                       "write a self-contained HTML page")

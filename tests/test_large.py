@@ -7,8 +7,8 @@ import pytest
 from matplotlib.figure import Figure
 
 import plotwise
-from plotwise.render import draw
-from plotwise.rules import THRESHOLDS
+from plotwise.drawing.render import draw
+from plotwise.engine.rules import THRESHOLDS
 
 
 @pytest.fixture(scope="module")

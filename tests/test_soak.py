@@ -8,7 +8,7 @@ import pandas as pd
 import pytest
 
 import plotwise
-from plotwise.display import figure_png
+from plotwise.notebook.display import figure_png
 
 
 def rss_mb() -> float:

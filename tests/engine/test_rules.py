@@ -2,8 +2,8 @@
 
 import pytest
 
-from plotwise.rules import CLEVELAND_MCGILL_1984, MACKINLAY_1986
-from plotwise.scoring import channel_score
+from plotwise.engine.rules import CLEVELAND_MCGILL_1984, MACKINLAY_1986
+from plotwise.engine.scoring import channel_score
 
 
 def test_mackinlay_quantitative_order():

@@ -10,8 +10,8 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from .errors import PlotwiseError
-from .rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
+from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
+from plotwise.errors import PlotwiseError
 
 # Rows looked at when guessing whether strings are dates (a seeded sample, so profiles repeat).
 DATE_SNIFF_ROWS = 200

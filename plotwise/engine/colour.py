@@ -12,8 +12,8 @@ from functools import lru_cache
 
 import numpy as np
 
-from .errors import PlotwiseError
-from .rules import DIVERGING_CMAP, OKABE_ITO, SEQUENTIAL_CMAP, THRESHOLDS
+from plotwise.engine.rules import DIVERGING_CMAP, OKABE_ITO, SEQUENTIAL_CMAP, THRESHOLDS
+from plotwise.errors import PlotwiseError
 
 CVD_TYPES = {"protanomaly": "protan (red-weak)", "deuteranomaly": "deutan (green-weak)",
              "tritanomaly": "tritan (blue-weak)"}

@@ -22,7 +22,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from .errors import PlotwiseError
+from plotwise.errors import PlotwiseError
 
 ENGINE_NAMES = {"polars": "Polars", "pyarrow": "PyArrow", "duckdb": "DuckDB", "dask": "Dask",
                 "spark": "Spark"}
@@ -445,8 +445,8 @@ def profile_source(src: Source):
     THRESHOLDS['profile_sample'] rows (all rows when there are fewer), then the counts, missing
     values, min, max, mean, spread and skewness exact from the engine, and the exact label set of
     every column with few labels. Returns (Profile, the sample as a pandas frame)."""
-    from .profile import Profile, check_frame, profile_series
-    from .rules import THRESHOLDS
+    from plotwise.engine.profile import Profile, check_frame, profile_series
+    from plotwise.engine.rules import THRESHOLDS
 
     n = row_count(src)
     if n == 0:
@@ -531,7 +531,7 @@ class EngineStats:
         cache_key = ("table", tuple(keys), y, tuple(others))
         if cache_key in self._cache:
             return self._cache[cache_key]
-        from .datastats import working_frame
+        from plotwise.engine.datastats import working_frame
 
         cols = list(dict.fromkeys(keys + list(others)))
         fin = y is not None and bool(self._finite([y]))
@@ -560,7 +560,7 @@ class EngineStats:
     def medians(self, x: str, y: str, others: tuple = ()) -> pd.Series:
         """The median of ``y`` per group of ``x``, computed by the engine (rows complete in x, y
         and ``others``)."""
-        from .datastats import working_frame
+        from plotwise.engine.datastats import working_frame
 
         raw = self.src.run(grouped_expr(self.src, [x], y, stat="median",
                                         finite=bool(self._finite([y])), complete_in=others))

@@ -4,9 +4,9 @@ reasons, so a reader can follow it."""
 
 from __future__ import annotations
 
-from .designs import Design
-from .profile import FieldProfile, Profile
-from .rules import (
+from plotwise.engine.candidates import Design
+from plotwise.engine.profile import FieldProfile, Profile
+from plotwise.engine.rules import (
     CHANNEL_TO_PERCEPTUAL,
     INEXPRESSIVE_FACTOR,
     MACKINLAY_1986,
@@ -181,7 +181,7 @@ def data_fit(design: Design, profile: Profile, stats: dict) -> tuple[float, list
     if modes >= 2 and kind in ("histogram", "density", "strip", "violin", "ecdf"):
         why.append(f"shows the {modes} modes of the values")
     if kind == "regression":
-        from .association import nonlinear_reason
+        from plotwise.engine.association import nonlinear_reason
 
         summary, infl = stats.get("fit"), stats.get("influence")
         if infl is not None and (infl.cooks_d > T["cooks_d"] or infl.leverage >= T["leverage_alone"]):

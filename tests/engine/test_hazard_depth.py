@@ -7,7 +7,7 @@ import pytest
 from open_data import iris
 
 import plotwise
-from plotwise.colour import closest_pair, lightness_profile
+from plotwise.engine.colour import closest_pair, lightness_profile
 
 # Anscombe, F. J. (1973). Graphs in statistical analysis. The American Statistician 27(1).
 ANSCOMBE_X = [10, 8, 13, 9, 11, 14, 6, 4, 12, 7, 5]

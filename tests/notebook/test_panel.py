@@ -6,7 +6,7 @@ import pytest
 from open_data import grunfeld, iris
 
 import plotwise
-from plotwise.panel import AdvicePanel
+from plotwise.notebook.panel import AdvicePanel
 
 
 @pytest.fixture

@@ -14,10 +14,10 @@ import seaborn as sns
 from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 
-from .codegen import body_lines, short
-from .designs import Design
-from .errors import PlotwiseError
-from .profile import Profile
+from plotwise.drawing.codegen import body_lines, short
+from plotwise.engine.candidates import Design
+from plotwise.engine.profile import Profile
+from plotwise.errors import PlotwiseError
 
 PANEL_WIDTH_IN = 4.6
 PANEL_HEIGHT_IN = 4.2

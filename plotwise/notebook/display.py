@@ -8,10 +8,10 @@ import html
 import io
 from typing import TYPE_CHECKING
 
-from .codegen import short
+from plotwise.drawing.codegen import short
 
 if TYPE_CHECKING:  # pragma: no cover
-    from .advice import Advice
+    from plotwise.advice import Advice
 
 SEVERITY_MARK = {"severe": "!!", "warn": "! ", "info": "i "}
 SEVERITY_COLOUR = {"severe": "#B00020", "warn": "#8A5A00", "info": "#35618F"}

@@ -9,7 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
-from .rules import THRESHOLDS
+from plotwise.engine.rules import THRESHOLDS
 
 
 @dataclass

@@ -7,7 +7,7 @@ import nbformat
 import pytest
 from nbclient import NotebookClient
 
-ROOT = Path(__file__).resolve().parent.parent
+ROOT = Path(__file__).resolve().parents[2]
 NOTEBOOKS = sorted((ROOT / "demo_notebooks").glob("*.ipynb"))
 
 

@@ -9,7 +9,7 @@ from matplotlib.figure import Figure
 from open_data import grunfeld, kind_cases
 
 import plotwise
-from plotwise.render import draw
+from plotwise.drawing.render import draw
 
 CASES = kind_cases()
 
@@ -107,7 +107,7 @@ def test_histogram_bins_match_numpy():
 
 def test_sturges_rule_matches_formula():
     # Sturges (1926): k = ceil(log2 n) + 1, as numpy implements it.
-    from plotwise.datastats import choose_bins
+    from plotwise.engine.datastats import choose_bins
 
     v = np.zeros(100)
     v[:3] = [1, 2, 3]  # IQR = 0: Freedman–Diaconis cannot be used

@@ -7,9 +7,9 @@ comes out as an inert literal whatever it contains."""
 
 from __future__ import annotations
 
-from .designs import Design
-from .profile import FieldProfile, Profile
-from .rules import DIVERGING_CMAP, MAIN_COLOUR, OKABE_ITO, SEQUENTIAL_CMAP
+from plotwise.engine.candidates import Design
+from plotwise.engine.profile import FieldProfile, Profile
+from plotwise.engine.rules import DIVERGING_CMAP, MAIN_COLOUR, OKABE_ITO, SEQUENTIAL_CMAP
 
 LABEL_MAX = 40
 STAT_LABEL = {"sum": "total", "mean": "average", "median": "median"}
@@ -665,7 +665,7 @@ def engine_bins(design: Design) -> tuple:
 
 
 def engine_count_name(design: Design) -> str:
-    from .sources import count_name
+    from plotwise.sources.engines import count_name
 
     return count_name(engine_keys(design), design.y)
 
@@ -677,7 +677,7 @@ def engine_keys(design: Design) -> list[str]:
 
 def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     """Engine data: the query that runs in the engine, then ``d`` (or ``counts``) in pandas."""
-    from .sources import bins_expr, chained, grouped_expr, sample_expr
+    from plotwise.sources.engines import bins_expr, chained, grouped_expr, sample_expr
 
     src = profile.source
     name = src.engine_name
@@ -786,7 +786,7 @@ def design_code(design: Design, name: str = "df", profile: Profile | None = None
     title = short(design.title, 60)
     header = HEADER
     if profile.source is not None:
-        from .sources import open_code
+        from plotwise.sources.engines import open_code
 
         header = HEADER[:-1] + open_code(profile.source, name) + [""]
     lines = header + [

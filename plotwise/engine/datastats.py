@@ -9,8 +9,8 @@ import warnings
 import numpy as np
 import pandas as pd
 
-from .profile import Profile
-from .rules import PANEL_DPI, PANEL_SIZE_IN, SCATTER_MARKER_AREA_PT2, THRESHOLDS
+from plotwise.engine.profile import Profile
+from plotwise.engine.rules import PANEL_DPI, PANEL_SIZE_IN, SCATTER_MARKER_AREA_PT2, THRESHOLDS
 
 
 def skewed(f) -> bool:
@@ -255,7 +255,7 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
             out["time_gaps"] = int((steps > 1.5 * steps.median()).sum())
     measure = y if task == "compare" else (x if task == "distribution" else None)
     if measure and profile.fields[measure].level == "quantitative" and not profile.fields[measure].is_discrete:
-        from .shape import bin_rule_shapes, kde_modes
+        from plotwise.engine.shape import bin_rule_shapes, kde_modes
 
         log = skewed(profile.fields[measure])
         values = used[measure].to_numpy(dtype=float)
@@ -268,7 +268,7 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
     if ym:
         out["binary_y"] = is_binary(profile.fields[ym])
     if hue and task == "compare" and ym:
-        from .association import rate_reversal
+        from plotwise.engine.association import rate_reversal
 
         out["reversal"] = rate_reversal(used, x, ym, hue)
     if task == "distribution":
@@ -285,7 +285,7 @@ def design_stats(df: pd.DataFrame, profile: Profile, task: str, x, y, hue, stat:
         out["hidden_share"] = hidden_share(xv, yv)
         if len(xv) > 2 and np.std(xv) > 0 and np.std(yv) > 0:
             out["pearson"] = float(np.corrcoef(xv, yv)[0, 1])
-        from .association import correlation_reversal, fit_summary, most_influential
+        from plotwise.engine.association import correlation_reversal, fit_summary, most_influential
 
         out["fit"] = fit_summary(xv, yv)
         infl = most_influential(xv, yv)

@@ -6,12 +6,12 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
 
-from .errors import PlotwiseError
-from .profile import FieldProfile, Profile, _has_hint
-from .rules import TASKS, THRESHOLDS
+from plotwise.engine.profile import FieldProfile, Profile, _has_hint
+from plotwise.engine.rules import TASKS, THRESHOLDS
+from plotwise.errors import PlotwiseError
 
 if TYPE_CHECKING:  # pragma: no cover
-    from .hazards import Hazard
+    from plotwise.engine.hazards import Hazard
 
 KINDS = (
     "bar", "dot", "grouped-bar", "stacked-bar", "stacked-bar-100", "pie", "line", "area", "slope",
@@ -72,7 +72,7 @@ class Design:
         """A short runnable pandas + seaborn + matplotlib snippet that redraws this design from
         the DataFrame variable ``name``. (Code generation lives in plotwise.codegen; it is pure
         text and knows nothing of notebooks.)"""
-        from .codegen import design_code
+        from plotwise.drawing.codegen import design_code
 
         return design_code(self, name)
 
@@ -155,7 +155,7 @@ def _two_point_column(profile: Profile, exclude=()) -> FieldProfile | None:
 def strongest_pair(df, profile: Profile, labels: list[str]) -> tuple[str, str, float] | None:
     """The pair of numeric columns with the largest |Spearman ρ|, on at most 5,000 rows
     (a seeded sample) and the first 12 columns."""
-    from .datastats import working_frame
+    from plotwise.engine.datastats import working_frame
 
     labels = labels[:12]
     if len(labels) < 2:

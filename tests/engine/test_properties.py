@@ -15,7 +15,7 @@ from matplotlib.figure import Figure
 
 import plotwise
 from plotwise import PlotwiseError
-from plotwise.render import draw
+from plotwise.drawing.render import draw
 
 # 2,000 generated frames per CI run (override with PLOTWISE_EXAMPLES).
 EXAMPLES = int(os.environ.get("PLOTWISE_EXAMPLES", "2000"))

@@ -15,10 +15,10 @@ from matplotlib.figure import Figure, SubFigure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Rectangle, Wedge
 
-from .colour import lightness_profile, worst_confusion
-from .errors import PlotwiseError
-from .hazards import Hazard, lie_factor
-from .rules import STEVENS_EXPONENTS, THRESHOLDS
+from plotwise.engine.colour import lightness_profile, worst_confusion
+from plotwise.engine.hazards import Hazard, lie_factor
+from plotwise.engine.rules import STEVENS_EXPONENTS, THRESHOLDS
+from plotwise.errors import PlotwiseError
 
 
 @dataclass
@@ -64,7 +64,7 @@ class AuditReport:
         return marked_png(self)
 
     def _repr_mimebundle_(self, include=None, exclude=None):
-        from .display import hazards_html
+        from plotwise.notebook.display import hazards_html
 
         png = self.marked_png()
         b64 = base64.b64encode(png).decode("ascii")
@@ -302,7 +302,7 @@ def _looks_ordered(labels: list[str]) -> bool:
 
 
 def _check_scatter(ax: Axes, a: AxesAudit) -> None:
-    from .datastats import hidden_share
+    from plotwise.engine.datastats import hidden_share
 
     for c in ax.collections:
         if not isinstance(c, PathCollection):
@@ -409,7 +409,7 @@ def audit(fig_or_axes) -> AuditReport:
 def marked_png(report: AuditReport) -> bytes:
     """The figure as drawn, with a numbered red frame around every axes that has a hazard
     (drawn on a copy of the pixels; the user's figure is not touched)."""
-    from .render import plot_style
+    from plotwise.drawing.render import plot_style
 
     fig = report.figure
     buf = io.BytesIO()

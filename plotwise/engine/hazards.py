@@ -11,9 +11,9 @@ from dataclasses import dataclass, field
 
 import pandas as pd
 
-from .designs import Design
-from .profile import Profile
-from .rules import THRESHOLDS
+from plotwise.engine.candidates import Design
+from plotwise.engine.profile import Profile
+from plotwise.engine.rules import THRESHOLDS
 
 SEVERITIES = ("info", "warn", "severe")
 
@@ -205,7 +205,7 @@ def _overplotting(ctx: HazardContext) -> list[Hazard]:
 
 @check("skewed", "positive data with a heavy right tail (a log axis helps)")
 def _skewed(ctx: HazardContext) -> list[Hazard]:
-    from .datastats import skewed
+    from plotwise.engine.datastats import skewed
 
     out = []
     for col in dict.fromkeys(c for c in (ctx.x, ctx.y) if c):
@@ -298,7 +298,7 @@ def _missing_values(ctx: HazardContext) -> list[Hazard]:
 
 def drawn_colours(d: Design, n: int) -> list[str]:
     """The colours a design draws for n groups (as codegen picks them)."""
-    from .rules import OKABE_ITO
+    from plotwise.engine.rules import OKABE_ITO
 
     pal = d.options.get("palette")
     if pal:
@@ -314,7 +314,7 @@ def drawn_colours(d: Design, n: int) -> list[str]:
 @check("cvd-confusable", "two series' colours hard to tell apart, for normal or simulated "
        "colour-vision-deficient sight", per_design=True)
 def _cvd_confusable(ctx: HazardContext) -> list[Hazard]:
-    from .colour import CVD_TYPES, worst_confusion
+    from plotwise.engine.colour import CVD_TYPES, worst_confusion
 
     d = ctx.design
     col = d.encoding.get("hue")
@@ -342,7 +342,7 @@ def _cvd_confusable(ctx: HazardContext) -> list[Hazard]:
 @check("rainbow-colormap", "a colormap whose lightness does not rise steadily (or a diverging "
        "one on data with no midpoint)")
 def _rainbow_colormap(ctx: HazardContext) -> list[Hazard]:
-    from .colour import lightness_profile, resolve_cmap
+    from plotwise.engine.colour import lightness_profile, resolve_cmap
 
     if ctx.cmap is None:
         return []
@@ -403,7 +403,7 @@ def _hidden_modes(ctx: HazardContext) -> list[Hazard]:
 
 @check("nonlinear", "a correlation coefficient that misdescribes a curved relation")
 def _nonlinear(ctx: HazardContext) -> list[Hazard]:
-    from .association import nonlinear_reason
+    from plotwise.engine.association import nonlinear_reason
 
     fit = ctx.stats.get("fit")
     if fit is None:
@@ -447,7 +447,7 @@ def _influential(ctx: HazardContext) -> list[Hazard]:
 @check("reversal-in-groups", "an association or difference that flips or vanishes within groups "
        "(Simpson's paradox)")
 def _reversal(ctx: HazardContext) -> list[Hazard]:
-    from .association import is_reversal
+    from plotwise.engine.association import is_reversal
 
     rev = ctx.stats.get("reversal")
     if rev is None or not is_reversal(rev):

@@ -12,11 +12,11 @@ from dataclasses import replace
 
 import ipywidgets as widgets
 
-from .advice import Advice, advise
-from .codegen import short
-from .display import advice_html, figure_png, hazards_html
-from .errors import PlotwiseError
-from .rules import TASKS
+from plotwise.advice import Advice, advise
+from plotwise.drawing.codegen import short
+from plotwise.engine.rules import TASKS
+from plotwise.errors import PlotwiseError
+from plotwise.notebook.display import advice_html, figure_png, hazards_html
 
 
 def _escape(text) -> str:

@@ -12,9 +12,9 @@ from IPython.core.error import UsageError
 from IPython.core.magic import Magics, cell_magic, line_magic, magics_class
 from IPython.core.magic_arguments import argument, magic_arguments, parse_argstring
 
-from .advice import Advice, advise
-from .errors import PlotwiseError
-from .rules import TASKS
+from plotwise.advice import Advice, advise
+from plotwise.engine.rules import TASKS
+from plotwise.errors import PlotwiseError
 
 _LAST: dict = {"advice": None, "name": "df"}
 
@@ -37,7 +37,7 @@ def say_error(message: str) -> None:
 def is_frame(v) -> bool:
     """A pandas DataFrame or data held by an engine plotwise reads (Polars, PyArrow, DuckDB,
     Dask, Spark)."""
-    from .sources import is_engine_data
+    from plotwise.sources.engines import is_engine_data
 
     return isinstance(v, pd.DataFrame) or is_engine_data(v)
 
@@ -124,7 +124,7 @@ class PlotwiseMagics(Magics):
         _remember(advice, name)
         if use_panel:
             try:
-                from .panel import AdvicePanel
+                from plotwise.notebook.panel import AdvicePanel
 
                 display(AdvicePanel(advice, frame_name=name))
                 return
@@ -229,7 +229,7 @@ class PlotwiseMagics(Magics):
         from matplotlib.axes import Axes
         from matplotlib.figure import Figure
 
-        from .audit import audit, recover_frame
+        from plotwise.audit.figure import audit, recover_frame
 
         before = set(plt.get_fignums())
         try:

@@ -7,7 +7,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .rules import THRESHOLDS
+from plotwise.engine.rules import THRESHOLDS
 
 # At most this many values feed the density estimate (a seeded sample above it).
 MODE_SAMPLE = 5000

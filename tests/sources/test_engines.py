@@ -17,7 +17,7 @@ import pytest
 from open_data import grunfeld, iris, kind_cases
 
 import plotwise
-from plotwise.codegen import engine_mode
+from plotwise.drawing.codegen import engine_mode
 
 ENGINES = ["polars", "polars-lazy", "pyarrow", "duckdb", "parquet", "csv", "dask", "spark"]
 
@@ -338,7 +338,7 @@ def big_parquet(tmp_path_factory):
     import sys
     from pathlib import Path
 
-    sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "benchmarks"))
+    sys.path.insert(0, str(Path(__file__).resolve().parents[2] / "benchmarks"))
     from bigfile import write_parquet
 
     return write_parquet(tmp_path_factory.mktemp("big") / "big.parquet", BIG_ROWS)
@@ -419,7 +419,7 @@ def test_spark_awkward_column_names(spark):
 def test_wide_engine_table_gets_a_smaller_profile_sample(to_engine):
     """Above THRESHOLDS['engine_sample_cells'] the profile sample shrinks so that all columns of
     a wide table fit the budget; counts stay exact."""
-    from plotwise.rules import THRESHOLDS
+    from plotwise.engine.rules import THRESHOLDS
 
     rng = np.random.default_rng(5)
     n, width = 60_000, 400

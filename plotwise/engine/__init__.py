@@ -1,0 +1,1 @@
+"""The engine: profile → roles → candidates → scoring → hazards → headline. Imports no matplotlib, seaborn, notebook or engine-data code."""

@@ -1,0 +1,1 @@
+"""The notebook front: text/HTML display, the %plotwise magics and the widget panel."""
