@@ -6,14 +6,34 @@
     advice.show()    # matplotlib Figure with the top three side by side
 """
 
-from plotwise.advice import Advice, advise
-from plotwise.engine.candidates import KINDS, Design
-from plotwise.engine.hazards import HAZARD_CHECKS, Hazard, hazard_codes
+from plotwise.advice import Advice
+from plotwise.drawing import codegen as _codegen  # noqa: F401  (gives Design.code() its writer)
+from plotwise.engine.checking import hazard_codes
+from plotwise.engine.design import Design, DesignOptions
+from plotwise.engine.hazards import HAZARD_CHECKS, Hazard
+from plotwise.engine.kinds import KINDS, REGISTRY, ChartKind
 from plotwise.engine.profile import FieldProfile, Profile, profile_frame
-from plotwise.engine.rules import TASKS
+from plotwise.engine.stats import DesignStats
+from plotwise.engine.vocab import TASKS
 from plotwise.errors import PlotwiseError
+from plotwise.pipeline import advise
 
 __version__ = "0.1.0"
+
+
+def audit(fig_or_axes):
+    """Report the hazards in an already drawn matplotlib Figure or Axes (see plotwise.audit)."""
+    from plotwise.audit.figure import audit as _audit
+
+    return _audit(fig_or_axes)
+
+
+def __getattr__(name):
+    if name == "AuditReport":  # imported on first use: it needs matplotlib
+        from plotwise.audit.figure import AuditReport
+
+        return AuditReport
+    raise AttributeError(f"module 'plotwise' has no attribute {name!r}")
 
 
 def last():
@@ -37,7 +57,8 @@ def unload_ipython_extension(ipython):
 
 
 __all__ = [
-    "Advice", "Design", "FieldProfile", "HAZARD_CHECKS", "Hazard", "KINDS", "PlotwiseError",
-    "Profile", "TASKS", "advise", "hazard_codes", "last", "load_ipython_extension",
+    "Advice", "AuditReport", "ChartKind", "Design", "DesignOptions", "DesignStats",
+    "FieldProfile", "HAZARD_CHECKS", "Hazard", "KINDS", "PlotwiseError", "Profile", "REGISTRY",
+    "TASKS", "advise", "audit", "hazard_codes", "last", "load_ipython_extension",
     "profile_frame", "unload_ipython_extension", "__version__",
 ]

@@ -66,9 +66,9 @@ def cmd_audit(args) -> int:
 
 
 def cmd_advise(args) -> int:
-    from plotwise.advice import advise
     from plotwise.errors import PlotwiseError
     from plotwise.notebook.display import page_html
+    from plotwise.pipeline import advise
 
     try:
         a = advise(args.file, args.task, x=args.x, y=args.y, hue=args.hue, agg=args.agg,

@@ -107,8 +107,8 @@ def main(argv=None) -> int:
     import argparse
     from pathlib import Path
 
-    from plotwise.advice import advise
     from plotwise.notebook.display import advice_html, figure_png
+    from plotwise.pipeline import advise
 
     parser = argparse.ArgumentParser(description="Write plotwise's demo charts and summary.")
     parser.add_argument("out", nargs="?", default="build/demo", help="output folder")

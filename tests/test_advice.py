@@ -48,7 +48,7 @@ def test_weekly_co2_with_missing_weeks():
     assert "missing-values" in codes
     missing = next(h for h in a.hazards if h.code == "missing-values")
     assert f"{int(c['co2'].isna().sum())} of {len(c)} rows" in missing.message
-    assert a.designs[0].options.get("break_gaps") is True
+    assert a.designs[0].options.break_gaps is True
 
 
 def test_two_numeric_columns_scatter_first():

@@ -34,7 +34,7 @@ def drawn(design, df):
 def test_bar_totals_exact(big):
     a = plotwise.advise(big, "compare", x="group", y="value", agg="sum")
     bar = a.design("bar")
-    assert "totals of all" in bar.options["note"]
+    assert "totals of all" in bar.options.note
     fig, ax = drawn(bar, big)
     expected = big.groupby("group")["value"].sum().sort_values(ascending=False)
     np.testing.assert_allclose([p.get_width() for p in ax.patches], expected.values, rtol=1e-12)
@@ -44,12 +44,12 @@ def test_bar_totals_exact(big):
 def test_histogram_counts_equal_numpy_on_full_column(big):
     a = plotwise.advise(big, "distribution", x="other")
     h = a.design("histogram")
-    assert h.options.get("prebin")
+    assert h.options.prebin
     fig, ax = drawn(h, big)
     step = ax.patches[0]
     values, edges, _ = step.get_data()
     full = big["other"].to_numpy()
-    counts, ref_edges = np.histogram(full, bins=np.histogram_bin_edges(full, bins=h.options["bins"]))
+    counts, ref_edges = np.histogram(full, bins=np.histogram_bin_edges(full, bins=h.options.bins))
     np.testing.assert_array_equal(values, counts)
     np.testing.assert_allclose(edges, ref_edges)
     assert int(values.sum()) == len(big)
@@ -60,7 +60,7 @@ def test_point_designs_sampled_and_say_so(big):
     scatter = a.design("scatter")
     fig, ax = drawn(scatter, big)
     assert len(ax.collections[0].get_offsets()) == THRESHOLDS["draw_sample"]
-    assert "random sample of 20,000" in scatter.options["note"]
+    assert "random sample of 20,000" in scatter.options.note
     assert any(t.get_text().startswith("random sample") for t in ax.texts)
     hz = [h for h in scatter.hazards if h.code == "sampled"]
     assert hz and "119,500 rows" in hz[0].message

@@ -15,9 +15,12 @@ from matplotlib.figure import Figure, SubFigure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Rectangle, Wedge
 
+from plotwise.drawing.colours import cmap_rgb
 from plotwise.engine.colour import lightness_profile, worst_confusion
-from plotwise.engine.hazards import Hazard, lie_factor
+from plotwise.engine.conditions import lie_factor
+from plotwise.engine.hazards import Hazard
 from plotwise.engine.rules import STEVENS_EXPONENTS, THRESHOLDS
+from plotwise.engine.vocab import severity_rank
 from plotwise.errors import PlotwiseError
 
 
@@ -47,8 +50,7 @@ class AuditReport:
 
     @property
     def worst(self) -> str | None:
-        order = {"info": 0, "warn": 1, "severe": 2}
-        return max((h.severity for h in self.hazards), key=order.get, default=None)
+        return max((h.severity for h in self.hazards), key=severity_rank, default=None)
 
     def text(self) -> str:
         if not self.hazards:
@@ -244,7 +246,7 @@ def _check_colormaps(ax: Axes, a: AxesAudit) -> None:
         if cmap.name in seen:
             continue
         seen.add(cmap.name)
-        prof = lightness_profile(cmap)
+        prof = lightness_profile(cmap_rgb(cmap))
         vmin, vmax = m.norm.vmin, m.norm.vmax
         signed = vmin is not None and vmax is not None and vmin < 0 < vmax
         if prof.kind == "non-monotonic" or (prof.kind == "diverging" and not signed):
@@ -302,7 +304,7 @@ def _looks_ordered(labels: list[str]) -> bool:
 
 
 def _check_scatter(ax: Axes, a: AxesAudit) -> None:
-    from plotwise.engine.datastats import hidden_share
+    from plotwise.engine.stats import hidden_share
 
     for c in ax.collections:
         if not isinstance(c, PathCollection):

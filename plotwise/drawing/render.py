@@ -15,20 +15,20 @@ from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 
 from plotwise.drawing.codegen import body_lines, short
-from plotwise.engine.candidates import Design
+from plotwise.engine.design import Design
 from plotwise.engine.profile import Profile
+from plotwise.engine.rules import PANEL_DPI, PANEL_SIZE_IN
 from plotwise.errors import PlotwiseError
 
-PANEL_WIDTH_IN = 4.6
-PANEL_HEIGHT_IN = 4.2
+PANEL_WIDTH_IN, PANEL_HEIGHT_IN = PANEL_SIZE_IN  # one panel geometry: drawing and overplotting
 
 
 @contextmanager
 def plot_style():
     """plotwise's look, applied only inside the block."""
     with mpl.rc_context(), sns.axes_style("ticks"), sns.plotting_context("notebook", font_scale=0.75):
-        mpl.rcParams["figure.dpi"] = 100
-        mpl.rcParams["savefig.dpi"] = 100
+        mpl.rcParams["figure.dpi"] = PANEL_DPI
+        mpl.rcParams["savefig.dpi"] = PANEL_DPI
         with warnings.catch_warnings():
             # seaborn 0.13.2 with matplotlib 3.11 / pandas 3: deprecation chatter, not user news.
             warnings.filterwarnings("ignore", category=FutureWarning)

@@ -19,14 +19,21 @@ CVD_TYPES = {"protanomaly": "protan (red-weak)", "deuteranomaly": "deutan (green
              "tritanomaly": "tritan (blue-weak)"}
 
 
-def to_rgb_array(colours) -> np.ndarray:
-    from matplotlib.colors import to_rgb
-
+def hex_to_rgb(colour: str) -> tuple[float, float, float]:
+    """sRGB in 0..1 from '#rrggbb' (or '#rrggbbaa'; alpha ignored). Colour names are turned into
+    hex codes before they reach the engine (plotwise.drawing.colours)."""
+    text = str(colour).strip()
+    if not (text.startswith("#") and len(text) in (7, 9)):
+        raise PlotwiseError(f"palette: {colour!r} is not a hex colour; give colours as names or "
+                            "hex codes, e.g. ['#0072B2', '#E69F00'].")
     try:
-        return np.array([to_rgb(c) for c in colours], dtype=float)
-    except ValueError as exc:
-        raise PlotwiseError(f"palette: {exc}; give colours as names or hex codes, e.g. "
-                            "['#0072B2', '#E69F00'].") from None
+        return tuple(int(text[i:i + 2], 16) / 255 for i in (1, 3, 5))  # type: ignore[return-value]
+    except ValueError:
+        raise PlotwiseError(f"palette: {colour!r} is not a hex colour.") from None
+
+
+def to_rgb_array(colours) -> np.ndarray:
+    return np.array([hex_to_rgb(c) for c in colours], dtype=float)
 
 
 @dataclass
@@ -67,32 +74,11 @@ def _worst(colours: tuple[str, ...]) -> Confusion:
     return min(found, key=lambda c: c.delta_e)
 
 
-def resolve_cmap(cmap):
-    """A matplotlib Colormap from a name (matplotlib's or seaborn's) or a Colormap object."""
-    import matplotlib as mpl
-    from matplotlib.colors import Colormap
-
-    if isinstance(cmap, Colormap):
-        return cmap
-    if isinstance(cmap, str):
-        if cmap in mpl.colormaps:
-            return mpl.colormaps[cmap]
-        try:
-            import seaborn as sns
-
-            return sns.color_palette(cmap, as_cmap=True)
-        except (ValueError, TypeError):
-            pass
-    raise PlotwiseError(f"colormap {cmap!r} is not a matplotlib or seaborn colormap name; try "
-                        f"'{SEQUENTIAL_CMAP}' (sequential) or '{DIVERGING_CMAP}' (diverging).")
-
-
-def lightness(cmap, n: int = 256) -> np.ndarray:
-    """CAM02-UCS lightness J′ along the colormap."""
+def lightness(rgb: np.ndarray) -> np.ndarray:
+    """CAM02-UCS lightness J′ of an (n, 3) array of sRGB colours (a colormap's samples)."""
     import colorspacious as cs
 
-    rgb = resolve_cmap(cmap)(np.linspace(0, 1, n))[:, :3]
-    return cs.cspace_convert(rgb, "sRGB1", "CAM02-UCS")[:, 0]
+    return cs.cspace_convert(np.asarray(rgb, dtype=float)[:, :3], "sRGB1", "CAM02-UCS")[:, 0]
 
 
 @dataclass
@@ -105,21 +91,22 @@ class LightnessProfile:
     asymmetry: float
 
 
-def lightness_profile(cmap) -> LightnessProfile:
-    """Classify a colormap by its lightness: monotonic (sequential), one turn in the middle with
+def lightness_profile(rgb: np.ndarray) -> LightnessProfile:
+    """Classify a colormap, given as 256 sRGB samples along it, by its lightness: monotonic (sequential), one turn in the middle with
     matched halves (diverging), or rising and falling (non-monotonic, like a rainbow).
 
     Lightness is smoothed over 9 of 256 steps before its turns are counted (our own rule)."""
-    J = lightness(cmap)
-    smooth = np.convolve(J, np.ones(9) / 9, mode="valid")
+    J = lightness(rgb)
+    w = THRESHOLDS["lightness_smoothing"]
+    smooth = np.convolve(J, np.ones(w) / w, mode="valid")
     steps = np.sign(np.diff(smooth))
     steps = steps[steps != 0]
     turns = np.nonzero(np.diff(steps))[0]
     asym = float(np.mean(np.abs(J - J[::-1])))
-    at = float((turns[0] + 4) / (len(J) - 1)) if len(turns) else None
+    at = float((turns[0] + w // 2) / (len(J) - 1)) if len(turns) else None
     if len(turns) == 0:
         kind = "sequential"
-    elif (len(turns) == 1 and 0.4 <= at <= 0.6 and asym < THRESHOLDS["diverging_asymmetry"]
+    elif (len(turns) == 1 and abs(at - 0.5) <= THRESHOLDS["diverging_centre"] and asym < THRESHOLDS["diverging_asymmetry"]
           and abs(J[0] - J[-1]) < THRESHOLDS["diverging_asymmetry"]):
         kind = "diverging"
     else:

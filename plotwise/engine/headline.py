@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import pandas as pd
 
-from plotwise.engine.datastats import aggregate
+from plotwise.engine.working import aggregate
 
 
 def fmt(v: float) -> str:

@@ -170,7 +170,7 @@ def _top_labels(s: pd.Series, k: int = 12) -> tuple:
     return tuple(str(v) for v in counts.index[:k])
 
 
-def _has_hint(label: str, hints) -> bool:
+def has_hint(label: str, hints) -> bool:
     low = label.lower()
     tokens = [t for t in "".join(ch if ch.isalnum() else " " for ch in low).split() if t]
     for hint in hints:
@@ -286,7 +286,7 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
     fp.is_discrete = fp.is_integer and fp.distinct <= levels
     label = fp.label
     # Integer years stored as numbers.
-    if fp.is_integer and _has_hint(label, YEAR_NAME_HINTS) and 1000 <= fp.minimum and fp.maximum <= 2999:
+    if fp.is_integer and has_hint(label, YEAR_NAME_HINTS) and 1000 <= fp.minimum and fp.maximum <= 2999:
         fp.level = "temporal"
         ev.append(f"integer years {int(fp.minimum)}..{int(fp.maximum)} (name says year)")
         _time_spacing(fp, pd.Series(np.unique(finite)))
@@ -305,7 +305,7 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
     ev.append(f"{fp.distinct} distinct numbers from {fp.minimum:.4g} to {fp.maximum:.4g}")
     if fp.is_discrete:
         ev.append(f"integers with only {fp.distinct} levels (discrete)")
-    if _has_hint(label, INTERVAL_NAME_HINTS):
+    if has_hint(label, INTERVAL_NAME_HINTS):
         fp.zero_meaningful = False
         fp.signed = fp.minimum < 0 < fp.maximum
         ev.append("name suggests an interval scale: zero is arbitrary")
@@ -316,7 +316,7 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
         fp.zero_meaningful = True
         fp.signed = fp.maximum > 0
         ev.append("signed values: zero is the natural midpoint")
-    fp.share_like = fp.minimum >= 0 and _has_hint(label, SHARE_NAME_HINTS)
+    fp.share_like = fp.minimum >= 0 and has_hint(label, SHARE_NAME_HINTS)
     if fp.skew is not None and abs(fp.skew) >= 1:
         ev.append(f"skewness {fp.skew:.2f}")
 

@@ -11,8 +11,8 @@ from __future__ import annotations
 # --------------------------------------------------------------------------------------------
 # Measurement levels and tasks
 # --------------------------------------------------------------------------------------------
-LEVELS = ("nominal", "ordinal", "quantitative", "temporal")
-TASKS = ("compare", "trend", "proportion", "correlate", "distribution")
+# The names themselves are the engine's vocabulary (plotwise.engine.vocab).
+from plotwise.engine.vocab import LEVELS, TASKS  # noqa: E402,F401
 
 # --------------------------------------------------------------------------------------------
 # Perceptual channel rankings
@@ -70,33 +70,56 @@ ROLE_WEIGHTS = {"measure": 0.6, "category": 0.25, "hue": 0.15, "facet": 0.15}
 # open datasets in the tests, documented in DEVELOPERS.md).
 SCORE_WEIGHTS = {"effectiveness": 0.5, "task_fit": 0.3, "data_fit": 0.2}
 
+# A role the table above does not list weighs this much (common practice).
+OTHER_ROLE_WEIGHT = 0.1
+# A kind with no task-fit value for a task scores this task fit (common practice).
+UNLISTED_TASK_FIT = 0.3
+# Stacked segments start from shifting baselines: Cleveland & McGill (1984) rank judgements of
+# position along non-aligned scales below aligned ones; such a length channel scores this share
+# of an aligned one (the factor itself is common practice).
+NON_ALIGNED_FACTOR = 0.85
+
+# Data fit: each rule that finds the design ill-suited to the data multiplies its fit (1.0 =
+# suits) by one of these factors, and says why in the reasons (common practice; the sizes of the
+# factors order the problems by how badly they mislead: a shape the data do not have worst).
+FIT_FACTORS = {
+    "too_many_hues_severe": 0.35, "too_many_hues": 0.6,
+    "crowded_axis": 0.5,
+    "bunched_bars": 0.6, "dots_lose_ratio": 0.9,
+    "flat_area": 0.6,
+    "overlapping_means": 0.6,
+    "modes_hidden_by_box": 0.6, "modes_hidden_by_means": 0.75,
+    "influential_line": 0.6, "curved_line": 0.6, "weak_line": 0.7,
+    "pie_slices": 0.4, "pie_sliver": 0.7,
+    "dense_grid": 0.6, "small_heatmap": 0.7,
+    "line_few_points": 0.4, "bars_many_times": 0.45, "bars_uneven_times": 0.6,
+    "dots_many_times": 0.7,
+    "overplotted_severe": 0.3, "overplotted": 0.75,
+    "hexbin_few_points": 0.5, "binned_pairs": 0.8,
+    "smooth_few_points": 0.35, "histogram_few_points": 0.6, "box_few_points": 0.5,
+    "smoothing_integers": 0.55, "strip_many_points": 0.6, "single_group": 0.85,
+}
+# Sizes the data-fit rules compare with (common practice).
+FIT_LIMITS = {
+    "flat_area_spread": 0.5,  # an area filled from zero flattens changes smaller than this share
+    "dense_grid_bars": 60,  # grouped bars beyond this many are a dense grid
+    "small_heatmap_cells": 9,  # fewer cells than this: plain bars read better
+    "line_min_points": 3,  # a line needs this many time points to show a trend
+    "hexbin_min_points": 500,  # fewer points than this: draw each one
+    "weak_r": 0.2,  # |Pearson r| below this: a fitted line suggests a relation barely there
+    "box_min_points": 5,  # quartiles of fewer points are unstable
+    "strip_max_points": 2000,  # a strip plot shows at most about this many points separately
+}
+
 # A design that fails Mackinlay's expressiveness criterion is kept, last, with its score scaled by
 # this factor so it can never outrank an expressive design (common practice).
 INEXPRESSIVE_FACTOR = 0.25
 
-# How well each kind answers each task, 0..1 (common practice). Missing pairs mean "does not serve".
-TASK_FIT = {
-    "compare": {
-        "bar": 1.0, "dot": 0.92, "grouped-bar": 0.95, "stacked-bar": 0.6, "heatmap": 0.7,
-        "box": 0.8, "violin": 0.7, "strip": 0.75, "pie": 0.3, "line": 0.5,
-        "slope": 0.95, "difference-bar": 0.95,
-    },
-    "trend": {
-        "line": 1.0, "area": 0.75, "bar": 0.7, "dot": 0.6, "slope": 0.95, "difference-bar": 0.9,
-        "heatmap": 0.65, "stacked-bar": 0.55,
-    },
-    "proportion": {
-        "bar": 0.95, "stacked-bar-100": 0.9, "pie": 0.75, "dot": 0.8, "stacked-bar": 0.7,
-        "heatmap": 0.6, "grouped-bar": 0.75,
-    },
-    "correlate": {
-        "scatter": 1.0, "regression": 0.95, "hexbin": 0.85, "heatmap": 0.8,
-    },
-    "distribution": {
-        "histogram": 1.0, "density": 0.85, "ecdf": 0.8, "box": 0.75, "violin": 0.78,
-        "strip": 0.72, "count-bar": 1.0,
-    },
-}
+# With no task stated, a design relating fewer columns than the richest keeps at least this share
+# of its score (our own rule: 0.85 + 0.15 × columns used / most columns used).
+RICHER_BASE = 0.85
+
+# How well each kind answers each task lives in each kind's record (plotwise.engine.kinds).
 
 # --------------------------------------------------------------------------------------------
 # Thresholds used by data fit and hazards
@@ -123,6 +146,14 @@ THRESHOLDS = {
     # Standardised difference between group means below which their distributions overlap
     # heavily (Cohen's d < 0.5, a "medium" effect; Cohen 1988, from memory).
     "hidden_spread_d": 0.5,
+    # A total above this is read as percentages (of 100), else as fractions (of 1) (common
+    # practice).
+    "percent_total_above": 5,
+    # A step between time points longer than this many usual steps is a gap (common practice).
+    "time_gap_steps": 1.5,
+    # Strip plots scatter points this far (in category widths) either side of the axis; the
+    # overplotting estimate uses the same jitter (our own layout).
+    "strip_jitter": 0.25,
     # Share of rows left out for missing values above which the note becomes a warning
     # (common practice).
     "missing_warn": 0.05,
@@ -157,6 +188,12 @@ THRESHOLDS = {
     "prebin_above": 50_000,
     # Hexbins and 2-D histograms of more rows than this count a seeded sample of that many rows.
     "bin_sample": 100_000,
+    # Freedman–Diaconis is used when it gives this many bins or between; else Sturges (common
+    # practice: fewer hides the shape, more is noise at the panel's width).
+    "fd_min_bins": 5,
+    "fd_max_bins": 150,
+    # Engine histograms: at most this many bins come back (common practice).
+    "engine_max_bins": 200,
     # Small multiples: at most this many panels (common practice).
     "max_facets": 12,
     # Two palette colours closer than this CAM02-UCS ΔE, for normal or simulated colour-vision
@@ -166,6 +203,10 @@ THRESHOLDS = {
     # A diverging colormap's two halves match in lightness: mean |J'(t) - J'(1-t)| below this
     # (our own rule; seaborn's vlag 0.4, matplotlib's RdBu 2.6, turbo far above).
     "diverging_asymmetry": 5.0,
+    # A colormap's lightness is smoothed over this many of its 256 samples before its turns are
+    # counted; a diverging map turns within this distance of its middle (our own rules).
+    "lightness_smoothing": 9,
+    "diverging_centre": 0.1,
     # A density peak counts as a mode when its prominence is at least this share of the highest
     # density (Gaussian KDE, Silverman 1986 bandwidth; our own documented threshold).
     "mode_prominence": 0.1,
@@ -186,15 +227,15 @@ THRESHOLDS = {
     "bunched_spread": 0.1,
 }
 
-# Kinds that draw every row as a mark (sampled on large data) and kinds drawn from binned counts.
-POINT_KINDS = ("scatter", "regression", "strip", "box", "violin", "density", "ecdf")
-
 # Marker drawn by scatter designs: seaborn's default marker area, in points² (from memory: 36 in
 # seaborn 0.13 via rcParams lines.markersize 6 → 6² = 36).
 SCATTER_MARKER_AREA_PT2 = 36.0
-# The panel the advice draws into, in inches (our own layout).
-PANEL_SIZE_IN = (4.4, 3.6)
+# The panel the advice draws into, in inches (our own layout), used by drawing and by the
+# overplotting estimate alike; about this share of it is the plotting area (the rest holds
+# titles, labels and ticks).
+PANEL_SIZE_IN = (4.6, 4.2)
 PANEL_DPI = 100
+PANEL_PLOT_FRACTION = 0.75
 
 # --------------------------------------------------------------------------------------------
 # Colour
@@ -216,6 +257,11 @@ STEVENS_EXPONENTS = {"length": 1.0, "area": 0.7, "volume": 0.6, "brightness": 0.
 # Name fragments that mark an interval-scale quantity whose zero is arbitrary (common practice).
 INTERVAL_NAME_HINTS = ("temp", "celsius", "fahrenheit", "latitude", "longitude", "lat", "lon",
                        "elevation", "zscore", "z_score")
+# Name fragments of measures whose totals make sense (sum them); others are averaged
+# (common practice).
+SUM_NAME_HINTS = ("revenue", "sales", "count", "amount", "cost", "total", "quantity", "units",
+                  "volume", "passengers", "visits", "orders", "spend", "income", "profit", "trips",
+                  "tickets", "n", "num", "number", "admitted", "applicants")
 # Name fragments that mark a column of percentages or shares (common practice).
 SHARE_NAME_HINTS = ("pct", "percent", "share", "%", "proportion", "fraction")
 # Name fragments that mark a year stored as an integer (common practice).

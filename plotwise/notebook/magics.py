@@ -12,9 +12,10 @@ from IPython.core.error import UsageError
 from IPython.core.magic import Magics, cell_magic, line_magic, magics_class
 from IPython.core.magic_arguments import argument, magic_arguments, parse_argstring
 
-from plotwise.advice import Advice, advise
+from plotwise.advice import Advice
 from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
+from plotwise.pipeline import advise
 
 _LAST: dict = {"advice": None, "name": "df"}
 

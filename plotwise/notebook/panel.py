@@ -12,11 +12,12 @@ from dataclasses import replace
 
 import ipywidgets as widgets
 
-from plotwise.advice import Advice, advise
+from plotwise.advice import Advice
 from plotwise.drawing.codegen import short
 from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
 from plotwise.notebook.display import advice_html, figure_png, hazards_html
+from plotwise.pipeline import advise
 
 
 def _escape(text) -> str:
@@ -103,7 +104,7 @@ class AdvicePanel(widgets.VBox):
         d = self.advice.designs[index]
         if d.kind == "histogram":
             if bins is not None:
-                d = replace(d, options={**d.options, "bins": int(bins)})
+                d = replace(d, options=replace(d.options, bins=int(bins)))
             self.bins.layout.display = "flex"
         else:
             self.bins.layout.display = "none"

@@ -531,7 +531,7 @@ class EngineStats:
         cache_key = ("table", tuple(keys), y, tuple(others))
         if cache_key in self._cache:
             return self._cache[cache_key]
-        from plotwise.engine.datastats import working_frame
+        from plotwise.engine.working import working_frame
 
         cols = list(dict.fromkeys(keys + list(others)))
         fin = y is not None and bool(self._finite([y]))
@@ -548,19 +548,21 @@ class EngineStats:
         self._cache[cache_key] = t
         return t
 
-    def grouped(self, x: str, y: str | None, others: tuple = ()) -> dict:
-        """Like datastats.grouped(), from the engine."""
+    def grouped(self, x: str, y: str | None, others: tuple = ()):
+        """Like plotwise.engine.stats.grouped(), from the engine: a GroupSums."""
+        from plotwise.engine.stats import GroupSums
+
         t = self.table([x], y, others)
-        out = {"labels": t.index, "count": t["count"].to_numpy()}
+        g = GroupSums(t.index, t["count"].to_numpy())
         if y is not None:
-            out["sum"] = t["sum"].to_numpy()
-            out["sumsq"] = t["sumsq"].to_numpy()
-        return out
+            g.sum = t["sum"].to_numpy()
+            g.sumsq = t["sumsq"].to_numpy()
+        return g
 
     def medians(self, x: str, y: str, others: tuple = ()) -> pd.Series:
         """The median of ``y`` per group of ``x``, computed by the engine (rows complete in x, y
         and ``others``)."""
-        from plotwise.engine.datastats import working_frame
+        from plotwise.engine.working import working_frame
 
         raw = self.src.run(grouped_expr(self.src, [x], y, stat="median",
                                         finite=bool(self._finite([y])), complete_in=others))

@@ -95,7 +95,7 @@ def test_histogram_bins_match_numpy():
     f = iris()
     a = plotwise.advise(f, "distribution", x="petal length (cm)")
     h = a.design("histogram")
-    rule = h.options["bins"]
+    rule = h.options.bins
     assert rule in ("fd", "sturges")
     fig = Figure()
     ax = fig.subplots()
@@ -107,7 +107,7 @@ def test_histogram_bins_match_numpy():
 
 def test_sturges_rule_matches_formula():
     # Sturges (1926): k = ceil(log2 n) + 1, as numpy implements it.
-    from plotwise.engine.datastats import choose_bins
+    from plotwise.engine.bins import choose_bins
 
     v = np.zeros(100)
     v[:3] = [1, 2, 3]  # IQR = 0: Freedman–Diaconis cannot be used

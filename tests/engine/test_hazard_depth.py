@@ -7,6 +7,7 @@ import pytest
 from open_data import iris
 
 import plotwise
+from plotwise.drawing.colours import cmap_rgb
 from plotwise.engine.colour import closest_pair, lightness_profile
 
 # Anscombe, F. J. (1973). Graphs in statistical analysis. The American Statistician 27(1).
@@ -97,7 +98,7 @@ def test_correlation_reversal_within_groups():
 def test_colormap_lightness(cmap, kind):
     # Smith & van der Walt (2015): viridis (and cividis) have monotonic lightness; jet and turbo
     # rise and fall. Lightness J' computed in CAM02-UCS by colorspacious.
-    assert lightness_profile(cmap).kind == kind
+    assert lightness_profile(cmap_rgb(cmap)).kind == kind
 
 
 def test_rainbow_colormap_hazard():

@@ -5,7 +5,7 @@ import pandas as pd
 import pytest
 
 import plotwise
-from plotwise.engine.hazards import lie_factor
+from plotwise.engine.conditions import lie_factor
 
 
 def codes(advice, kind=None):

@@ -17,7 +17,7 @@ import pytest
 from open_data import grunfeld, iris, kind_cases
 
 import plotwise
-from plotwise.drawing.codegen import engine_mode
+from plotwise.engine.kinds import engine_mode
 
 ENGINES = ["polars", "polars-lazy", "pyarrow", "duckdb", "parquet", "csv", "dask", "spark"]
 
@@ -221,7 +221,7 @@ def test_large_engine_data_is_sampled_and_counted_in_the_engine(engine, to_engin
     assert other.fields["amount"].mean == pytest.approx(df["amount"].mean(), rel=1e-12)
     assert other.fields["amount"].skew == pytest.approx(df["amount"].skew(), rel=1e-9)
     bar = other.design("bar")
-    assert f"{other.engine} computed the totals of all 299,000 rows" == bar.options["note"]
+    assert f"{other.engine} computed the totals of all 299,000 rows" == bar.options.note
     f1, f2 = plt.figure(), plt.figure()
     try:
         base.draw(base.design("bar"), ax=f1.subplots())
@@ -231,7 +231,7 @@ def test_large_engine_data_is_sampled_and_counted_in_the_engine(engine, to_engin
         plt.close(f1)
         plt.close(f2)
     box = other.design("box")
-    assert box.options["engine_sample"] == 20_000
+    assert box.options.engine_sample == 20_000
     assert "sampled" in [h.code for h in box.hazards]
 
 
@@ -242,7 +242,7 @@ def test_engine_histogram_counts_every_row(to_engine):
     df = pd.DataFrame({"x": rng.normal(10, 2, 5000)})
     a = plotwise.advise(to_engine(df, "polars-lazy"), "distribution", x="x")
     h = a.design("histogram")
-    lo, width, k, log = h.options["edges"]
+    lo, width, k, log = h.options.edges
     fig = plt.figure()
     try:
         a.draw(h, ax=fig.subplots())
@@ -368,7 +368,7 @@ def test_file_larger_than_the_memory_bound_is_advised_through_duckdb(big_parquet
         # VmHWM: this address space's peak (ru_maxrss can carry the parent's peak over exec).
         "hwm = [ln for ln in open('/proc/self/status') if ln.startswith('VmHWM')][0]\n"
         "print(json.dumps({'peak_mb': int(hwm.split()[1]) / 1024,\n"
-        "  'rows': a.profile.rows, 'engine': a.engine, 'note': bar.options['note'],\n"
+        "  'rows': a.profile.rows, 'engine': a.engine, 'note': bar.options.note,\n"
         "  'missing': a.fields['amount'].missing, 'labels': len(a.fields['region'].labels)}))\n")
     run = subprocess.run([sys.executable, "-c", script, str(big_parquet)], capture_output=True,
                          text=True, timeout=600, env={**__import__("os").environ, "MPLBACKEND": "Agg"})
@@ -390,8 +390,8 @@ def test_engine_histogram_follows_a_chosen_bin_count(to_engine):
     df = iris()
     a = plotwise.advise(to_engine(df, "duckdb"), "distribution", x="sepal width (cm)")
     h = a.design("histogram")
-    lo, width, k, _ = h.options["edges"]
-    h7 = replace(h, options={**h.options, "bins": 7})
+    lo, width, k, _ = h.options.edges
+    h7 = replace(h, options=replace(h.options, bins=7))
     fig = plt.figure()
     try:
         a.draw(h7, ax=fig.subplots())

@@ -1,0 +1,187 @@
+"""The building blocks of a generated snippet: short labels, column references, palettes and the
+``Ctx`` a kind's generator writes with, plus the table of generators (one per chart kind,
+filled by generators_groups and generators_rows)."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+
+from plotwise.engine.design import Design
+from plotwise.engine.kinds import engine_mode
+from plotwise.engine.profile import FieldProfile, Profile
+from plotwise.engine.rules import OKABE_ITO, SEQUENTIAL_CMAP
+from plotwise.engine.working import conversion
+
+LABEL_MAX = 40
+STAT_LABEL = {"sum": "total", "mean": "average", "median": "median"}
+
+
+def short(text: str, limit: int = LABEL_MAX) -> str:
+    """A label cut to ``limit`` characters with an ellipsis, on one line, printable only."""
+    text = " ".join("".join(ch if ch.isprintable() else " " for ch in str(text)).split())
+    return text if len(text) <= limit else text[: limit - 1] + "…"
+
+
+def column_ref(f: FieldProfile, frame: str) -> str:
+    """How the snippet reaches a column of the caller's frame."""
+    if isinstance(f.name, str) or (isinstance(f.name, (int, float)) and not isinstance(f.name, bool)
+                                   and f.name == f.name):
+        return f"{frame}[{f.name!r}]"
+    return f"{frame}.iloc[:, {f.position}]"
+
+
+def column_expr(f: FieldProfile, frame: str) -> str:
+    """The converted column as code: the engine's own conversion (plotwise.engine.working)."""
+    return conversion(f).format(column_ref(f, frame))
+
+
+def palette_expr(n_hint: int, count: str | None = None, own: list | None = None) -> str:
+    """Okabe & Ito (2008) colours (or the caller's ``own``), cut to the number of levels drawn
+    (``count``, an expression) so seaborn gets exactly as many as it needs; husl for more levels
+    than the palette has."""
+    if own:
+        cycled = f"({list(own)!r} * {n_hint})"
+        return cycled + (f"[:{count}]" if count else f"[:{n_hint}]")
+    if n_hint <= len(OKABE_ITO):
+        return repr(list(OKABE_ITO)) + (f"[:{count}]" if count else "")
+    return f'sns.color_palette("husl", {count or n_hint})'
+
+
+class Ctx:
+    """What a kind's generator needs: the design, the profile and the names of variables."""
+
+    def __init__(self, design: Design, profile: Profile, data: str = "d", ax: str = "ax"):
+        self.d = design
+        self.p = profile
+        self.data = data
+        self.ax = ax
+        # Engine data drawn from per-group rows: the name of their row-count column.
+        self.preagg = (engine_count_name(design) if profile.source is not None
+                       and engine_mode(design) == "groups" else None)
+
+    def palette(self, n_hint: int, count: str | None = None) -> str:
+        return palette_expr(n_hint, count, self.d.options.palette)
+
+    def cmap(self, default: str = SEQUENTIAL_CMAP) -> str:
+        return repr(self.d.options.cmap or default)
+
+    def lit(self, label) -> str:
+        return repr(label)
+
+    def f(self, label) -> FieldProfile | None:
+        return self.p.fields.get(label)
+
+    def nominal(self, label) -> bool:
+        f = self.f(label)
+        return f is not None and f.level == "nominal"
+
+    def measure_label(self) -> str:
+        d = self.d
+        if d.y is None or d.stat == "count":
+            base = "number of rows"
+        else:
+            base = f"{STAT_LABEL.get(d.stat, '')} {short(d.y)}".strip()
+        if d.options.share:
+            base = "% of all rows" if d.y is None else f"{short(d.y)}, % of the total"
+        return base
+
+    def agg_call(self) -> str:
+        d = self.d
+        if d.y is None or d.stat == "count":
+            return ".size()"
+        return {"mean": f"[{d.y!r}].mean()", "median": f"[{d.y!r}].median()"}.get(
+            d.stat, f"[{d.y!r}].sum()")
+
+    def value_name(self) -> str:
+        """Column name of the aggregated value in a long table."""
+        d = self.d
+        if d.y is not None and d.stat != "count":
+            return d.y
+        name = "count"
+        while name in (d.x, d.hue, d.facet):
+            name += "_"
+        return name
+
+    def grouped(self, by: list[str]) -> str:
+        keys = by[0] if len(by) == 1 else by
+        g = f"{self.data}.groupby({keys!r}, observed=True)"
+        d = self.d
+        if self.preagg is not None:  # rows already one per group: add counts and sums up
+            if d.y is None or d.stat == "count":
+                return f"{g}[{self.preagg!r}].sum()"
+            if d.stat == "mean":
+                return f"({g}[{d.y!r}].sum() / {g}[{self.preagg!r}].sum()).rename({d.y!r})"
+            if d.stat == "median":
+                return f"{g}[{d.y!r}].median()"
+            return f"{g}[{d.y!r}].sum()"
+        return f"{g}{self.agg_call()}"
+
+
+def _style(c: Ctx, value_axis: str | None) -> list[str]:
+    lines = [f'{c.ax}.spines[["top", "right"]].set_visible(False)']
+    if value_axis:
+        lines.append(f'{c.ax}.grid(axis="{value_axis}", color="#dddddd", linewidth=0.8)')
+        lines.append(f"{c.ax}.set_axisbelow(True)")
+        if not c.d.log_scale:
+            lines.append(f'{c.ax}.locator_params(axis="{value_axis}", nbins=5)')
+    return lines
+
+
+def _legend(c: Ctx) -> str:
+    """A small frameless legend titled with the (shortened) hue column."""
+    return f"{c.ax}.legend(title={short(c.d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)"
+
+
+def _labels(c: Ctx, xlabel: str | None, ylabel: str | None, xnote: str = "") -> list[str]:
+    """Axis labels, each cut to one short line; ``xnote`` goes on a second line under x."""
+    out = []
+    if xlabel is not None:
+        out.append(f"{c.ax}.set_xlabel({short(xlabel) + xnote!r})")
+    if ylabel is not None:
+        out.append(f"{c.ax}.set_ylabel({short(ylabel)!r})")
+    return out
+
+
+def _ordered_series(c: Ctx, cat: str, ascending: bool = False) -> list[str]:
+    """v = aggregated values per category; nominal categories sorted by value."""
+    lines = [f"v = {c.grouped([cat])}"]
+    if c.nominal(cat):
+        lines.append(f"v = v.sort_values(ascending={ascending})")
+    if c.d.options.share:
+        lines.append("v = v / v.sum() * 100")
+    lines.append("labels = v.index.astype(str)")
+    return lines
+
+
+# ----------------------------------------------------------------------------------------------
+# One generator per kind. Each returns lines that draw on c.ax from the working frame c.data.
+# ----------------------------------------------------------------------------------------------
+
+
+def engine_bins(design: Design) -> tuple:
+    """(low, width, count, log) of an engine histogram's bins; a whole number in
+    ``options.bins`` (the panel's slider) splits the same range into that many bins."""
+    lo, width, k, log = design.options.edges
+    want = design.options.bins
+    if isinstance(want, int) and want > 0 and want != k:
+        width, k = width * k / want, want
+    return lo, width, k, log
+
+
+def engine_count_name(design: Design) -> str:
+    from plotwise.sources.engines import count_name
+
+    return count_name(engine_keys(design), design.y)
+
+
+def engine_keys(design: Design) -> list[str]:
+    measure = None if (design.y is None or design.stat == "count") else design.y
+    return [c for c in design.columns if c != measure]
+
+Generator = Callable[[Ctx], list[str]]
+GENERATORS: dict[str, Generator] = {}
+
+
+def register(table: dict[str, Generator]) -> None:
+    """Add kinds' generators; each returns lines that draw on c.ax from the working frame c.data."""
+    GENERATORS.update(table)
