@@ -23,14 +23,14 @@ __version__ = "0.1.0"
 
 def audit(fig_or_axes):
     """Report the hazards in an already drawn matplotlib Figure or Axes (see plotwise.audit)."""
-    from plotwise.audit.figure import audit as _audit
+    from plotwise.figure_audit.figure import audit as _audit
 
     return _audit(fig_or_axes)
 
 
 def __getattr__(name):
     if name == "AuditReport":  # imported on first use: it needs matplotlib
-        from plotwise.audit.figure import AuditReport
+        from plotwise.figure_audit.figure import AuditReport
 
         return AuditReport
     raise AttributeError(f"module 'plotwise' has no attribute {name!r}")

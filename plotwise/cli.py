@@ -38,7 +38,7 @@ def run_script(path: Path) -> list:
 
 
 def cmd_audit(args) -> int:
-    from plotwise.audit.figure import audit
+    from plotwise.figure_audit.figure import audit
 
     path = Path(args.script)
     if not path.is_file():

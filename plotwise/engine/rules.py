@@ -140,6 +140,9 @@ THRESHOLDS = {
     # ...and only when the values span at least this ratio (largest / smallest), so a log axis
     # has orders of magnitude to spread out (common practice).
     "skew_span": 10.0,
+    # Markers more transparent than this show their overlaps; no overplotting warning (common
+    # practice).
+    "see_through_alpha": 0.3,
     # Share of points hidden under others at the drawn marker size: warn / severe (common practice).
     "overplot_warn": 0.25,
     "overplot_severe": 0.6,

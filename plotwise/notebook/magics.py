@@ -230,7 +230,7 @@ class PlotwiseMagics(Magics):
         from matplotlib.axes import Axes
         from matplotlib.figure import Figure
 
-        from plotwise.audit.figure import audit, recover_frame
+        from plotwise.figure_audit.figure import audit, recover_frame
 
         before = set(plt.get_fignums())
         try:

@@ -1,4 +1,4 @@
-"""Generated frames (the strategy of test_properties.py) handed to plotwise through Polars and
+"""Generated frames (the column strategy of strategies.py) handed to plotwise through Polars and
 DuckDB: always an Advice or a readable PlotwiseError, never a deep traceback; the engine data is
 unchanged; and for columns whose meaning survives the conversion, the same ranked designs and
 hazard codes as the pandas frame."""
@@ -11,7 +11,7 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from matplotlib.figure import Figure
-from test_properties import column
+from strategies import column
 
 import plotwise
 from plotwise import PlotwiseError

@@ -1,102 +1,26 @@
-"""Audit a chart that is already drawn: read a matplotlib Figure's artists (bars, wedges, lines,
-collections, images, limits, scales, legends, projections) and report what could mislead, with
-the same Hazard type as advise(). Drawing-side code: it reads figures, never changes them."""
+"""The checks of an audit: each reads one Axes' artists (never changes them) and appends the
+Hazards it finds, with the engine's hazard codes, severities and shared conditions."""
 
 from __future__ import annotations
-
-import base64
-import io
-from dataclasses import dataclass, field
 
 import numpy as np
 from matplotlib.axes import Axes
 from matplotlib.collections import PathCollection, PolyCollection
-from matplotlib.figure import Figure, SubFigure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Rectangle, Wedge
 
 from plotwise.drawing.colours import cmap_rgb
 from plotwise.engine.colour import lightness_profile, worst_confusion
-from plotwise.engine.conditions import lie_factor
+from plotwise.engine.conditions import (
+    hue_severity,
+    lie_factor,
+    overplot_severity,
+    thin_slice,
+    too_many_slices,
+)
 from plotwise.engine.hazards import Hazard
 from plotwise.engine.rules import STEVENS_EXPONENTS, THRESHOLDS
-from plotwise.engine.vocab import severity_rank
-from plotwise.errors import PlotwiseError
-
-
-@dataclass
-class AxesAudit:
-    """What the audit found on one Axes."""
-
-    index: int
-    name: str
-    hazards: list[Hazard] = field(default_factory=list)
-    lie_factor: float | None = None
-    bars: list[float] = field(default_factory=list)  # bar values in data units, when bars exist
-    labels: list[str] = field(default_factory=list)
-
-
-@dataclass
-class AuditReport:
-    figure: Figure
-    axes: list[AxesAudit]
-
-    @property
-    def hazards(self) -> list[Hazard]:
-        return [h for a in self.axes for h in a.hazards]
-
-    def hazard_codes(self) -> list[str]:
-        return [h.code for h in self.hazards]
-
-    @property
-    def worst(self) -> str | None:
-        return max((h.severity for h in self.hazards), key=severity_rank, default=None)
-
-    def text(self) -> str:
-        if not self.hazards:
-            return "plotwise audit: no hazards found."
-        lines = ["plotwise audit:"]
-        for a in self.axes:
-            for h in a.hazards:
-                lines.append(f"  [{h.severity}] {h.code}: {h.message}")
-                lines.append(f"      fix: {h.fix}")
-        return "\n".join(lines)
-
-    def marked_png(self) -> bytes:
-        return marked_png(self)
-
-    def _repr_mimebundle_(self, include=None, exclude=None):
-        from plotwise.notebook.display import hazards_html
-
-        png = self.marked_png()
-        b64 = base64.b64encode(png).decode("ascii")
-        html = (f"<div class='pw-audit'><img alt='audited figure' src='data:image/png;base64,{b64}'/>"
-                f"<h4>What could mislead</h4>{hazards_html(self.hazards)}</div>")
-        return {"text/plain": self.text(), "text/html": html, "image/png": b64}
-
-    def __str__(self) -> str:
-        return self.text()
-
-
-def _axes_of(obj) -> tuple[Figure, list[Axes]]:
-    if isinstance(obj, Axes):
-        return obj.figure, [obj]
-    if isinstance(obj, (Figure, SubFigure)):
-        fig = obj.figure if isinstance(obj, SubFigure) else obj
-        return fig, [a for a in obj.get_axes() if not _is_colorbar(a)]
-    if hasattr(obj, "figure") and isinstance(obj.figure, Figure):  # seaborn grids
-        return obj.figure, [a for a in obj.figure.get_axes() if not _is_colorbar(a)]
-    raise PlotwiseError(f"audit needs a matplotlib Figure or Axes, got {type(obj).__name__}; "
-                        "pass plt.gcf(), the Figure you made, or an Axes.")
-
-
-def _is_colorbar(ax: Axes) -> bool:
-    return ax.get_label() == "<colorbar>" or hasattr(ax, "_colorbar")
-
-
-def _name(ax: Axes, i: int) -> str:
-    title = ax.get_title() or (ax.figure._suptitle.get_text() if getattr(ax.figure, "_suptitle", None) else "")
-    return f"axes {i + 1}" + (f" '{title[:40]}'" if title else "")
+from plotwise.figure_audit.report import AxesAudit
 
 
 def _bars(ax: Axes) -> tuple[str | None, list[Rectangle]]:
@@ -167,9 +91,9 @@ def _check_pie(ax: Axes, a: AxesAudit) -> None:
         return
     fractions = [((w.theta2 - w.theta1) % 360 or 360) / 360 for w in wedges]
     total = sum(fractions)
-    small = [f for f in fractions if f < THRESHOLDS["pie_min_share"]]
+    small = [f for f in fractions if thin_slice(f)]
     problems = []
-    if len(wedges) > THRESHOLDS["pie_max_parts"]:
+    if too_many_slices(len(wedges)):
         problems.append(f"{len(wedges)} slices")
     if small:
         problems.append(f"{len(small)} slice(s) under {THRESHOLDS['pie_min_share']:.0%} (smallest "
@@ -224,8 +148,9 @@ def _check_colours(ax: Axes, a: AxesAudit) -> None:
     colours = _series_colours(ax)
     n = len(colours)
     is_pie = any(isinstance(p, Wedge) for p in ax.patches)  # slices: see too-many-slices
-    if n > THRESHOLDS["hues_warn"] and not is_pie:
-        a.hazards.append(Hazard("too-many-colors", "severe" if n > THRESHOLDS["hues_severe"] else "warn",
+    sev = hue_severity(n)
+    if sev and not is_pie:
+        a.hazards.append(Hazard("too-many-colors", sev,
                                 f"{a.name}: {n} colours in the legend; readers tell apart about 7 (Miller 1956).",
                                 "draw small multiples, or highlight a few and grey the rest"))
     if 2 <= n <= 30:
@@ -317,8 +242,9 @@ def _check_scatter(ax: Axes, a: AxesAudit) -> None:
         area = float(np.median(sizes)) if len(sizes) else 36.0
         hidden = hidden_share(px[:, 0], px[:, 1], marker_px=np.sqrt(area) * ax.figure.dpi / 72.0)
         alpha = c.get_alpha()
-        if hidden > THRESHOLDS["overplot_warn"] and (alpha is None or alpha > 0.3):
-            a.hazards.append(Hazard("overplotting", "severe" if hidden > THRESHOLDS["overplot_severe"] else "warn",
+        sev = overplot_severity(hidden)
+        if sev and (alpha is None or alpha > THRESHOLDS["see_through_alpha"]):
+            a.hazards.append(Hazard("overplotting", sev,
                                     f"{a.name}: about {hidden:.0%} of the {len(offs)} markers fall on top of "
                                     "another at their drawn size.",
                                     "use a hexbin or 2-D histogram, or small semi-transparent markers",
@@ -384,88 +310,3 @@ def _check_dual(axes: list[Axes], audits: list[AxesAudit]) -> None:
                     "crossing points and relative slopes depend only on the arbitrary scales chosen.",
                     "draw two panels one above the other with a shared x axis, or index both series "
                     "to a common start"))
-
-
-def audit(fig_or_axes) -> AuditReport:
-    """Report the hazards in an already drawn Figure (or Axes)."""
-    fig, axes = _axes_of(fig_or_axes)
-    renderer = fig.canvas.get_renderer() if hasattr(fig.canvas, "get_renderer") else None
-    if renderer is None:
-        from matplotlib.backends.backend_agg import FigureCanvasAgg
-
-        FigureCanvasAgg(fig)
-        renderer = fig.canvas.get_renderer()
-    fig.canvas.draw()  # lay out ticks and labels as the reader sees them
-    audits = []
-    for i, ax in enumerate(axes):
-        a = AxesAudit(i, _name(ax, i))
-        for check in (_check_3d, _check_bars, _check_fills, _check_pie, _check_colours,
-                      _check_colormaps, _check_lines, _check_scatter, _check_labels):
-            check(ax, a)
-        _check_ticks(ax, a, renderer)
-        audits.append(a)
-    _check_dual(axes, audits)
-    return AuditReport(fig, audits)
-
-
-def marked_png(report: AuditReport) -> bytes:
-    """The figure as drawn, with a numbered red frame around every axes that has a hazard
-    (drawn on a copy of the pixels; the user's figure is not touched)."""
-    from plotwise.drawing.render import plot_style
-
-    fig = report.figure
-    buf = io.BytesIO()
-    fig.savefig(buf, format="png", dpi=fig.dpi)
-    buf.seek(0)
-    import matplotlib.image as mpimg
-
-    img = mpimg.imread(buf)
-    h, w = img.shape[:2]
-    with plot_style():
-        out = Figure(figsize=(w / 100, h / 100), dpi=100)
-        ax = out.add_axes((0, 0, 1, 1))
-        ax.imshow(img)
-        ax.set_axis_off()
-        for a, axes in zip(report.axes, _axes_of(fig)[1]):
-            if not a.hazards:
-                continue
-            bb = axes.get_window_extent()
-            x0, y0 = bb.x0 * w / fig.bbox.width, h - bb.y1 * h / fig.bbox.height
-            ax.add_patch(Rectangle((x0, y0), bb.width * w / fig.bbox.width, bb.height * h / fig.bbox.height,
-                                   fill=False, edgecolor="#B00020", linewidth=2))
-            ax.text(x0 + 4, y0 + 4, f"{a.index + 1}: {', '.join(dict.fromkeys(x.code for x in a.hazards))}",
-                    color="white", fontsize=8, va="top", bbox={"facecolor": "#B00020", "edgecolor": "none"})
-        b = io.BytesIO()
-        out.savefig(b, format="png", dpi=100)
-    return b.getvalue()
-
-
-def recover_frame(ax: Axes):
-    """The data behind simple charts (bars, one line, one scatter), as a DataFrame and a task,
-    so the advised alternative can be drawn from it; None when it cannot be recovered."""
-    import pandas as pd
-
-    orient, rects = _bars(ax)
-    if orient:
-        axis = ax.xaxis if orient == "v" else ax.yaxis
-        labels = [t.get_text() for t in axis.get_ticklabels()]
-        values = [(r.get_y() + r.get_height()) if orient == "v" else (r.get_x() + r.get_width()) for r in rects]
-        if len(labels) == len(values) and all(labels):
-            name = (ax.get_ylabel() if orient == "v" else ax.get_xlabel()) or "value"
-            cat = (ax.get_xlabel() if orient == "v" else ax.get_ylabel()) or "category"
-            if name == cat:
-                cat = cat + " (category)"
-            return pd.DataFrame({cat: labels, name: values}), "compare"
-    pcs = [c for c in ax.collections if isinstance(c, PathCollection) and len(c.get_offsets()) > 2]
-    if len(pcs) == 1 and not ax.lines:
-        offs = np.asarray(pcs[0].get_offsets(), dtype=float)
-        xl, yl = ax.get_xlabel() or "x", ax.get_ylabel() or "y"
-        if xl == yl:
-            yl = yl + " (y)"
-        return pd.DataFrame({xl: offs[:, 0], yl: offs[:, 1]}), "correlate"
-    lines = [ln for ln in ax.lines if len(ln.get_xdata()) > 2]
-    if len(lines) == 1 and not _is_categorical(ax.xaxis):
-        x = np.asarray(lines[0].get_xdata(), dtype=float)
-        y = np.asarray(lines[0].get_ydata(), dtype=float)
-        return pd.DataFrame({"step": x, ax.get_ylabel() or "value": y}), "correlate"
-    return None

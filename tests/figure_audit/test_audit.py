@@ -12,7 +12,7 @@ import seaborn as sns
 from IPython.utils.capture import capture_output
 
 import plotwise
-from plotwise.audit.figure import audit
+from plotwise.figure_audit.figure import audit
 
 
 @pytest.fixture(autouse=True)
