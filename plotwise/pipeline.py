@@ -207,7 +207,7 @@ def merged_hazards(wide: list[tuple[str, Hazard]], shown: list[Design]) -> list[
 
 def open_data(df):
     """(profile, frame to work on, exact engine statistics or None, source or None)."""
-    from plotwise.sources.engines import EngineStats, open_source, profile_source
+    from plotwise.sources import EngineStats, open_source, profile_source
 
     src = open_source(df)
     if src is None:

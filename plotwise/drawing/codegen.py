@@ -29,7 +29,7 @@ if _missing:  # a kind in the registry without a generator would fail only when 
 
 def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     """Engine data: the query that runs in the engine, then ``d`` (or ``counts``) in pandas."""
-    from plotwise.sources.engines import bins_expr, chained, grouped_expr, sample_expr
+    from plotwise.sources.queries import bins_expr, chained, grouped_expr, sample_expr
 
     src = profile.source
     name = src.engine_name
@@ -138,7 +138,7 @@ def design_code(design: Design, name: str = "df", profile: Profile | None = None
     title = short(design.title, 60)
     header = HEADER
     if profile.source is not None:
-        from plotwise.sources.engines import open_code
+        from plotwise.sources.base import open_code
 
         header = HEADER[:-1] + open_code(profile.source, name) + [""]
     lines = header + [

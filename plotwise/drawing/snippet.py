@@ -169,7 +169,7 @@ def engine_bins(design: Design) -> tuple:
 
 
 def engine_count_name(design: Design) -> str:
-    from plotwise.sources.engines import count_name
+    from plotwise.sources.queries import count_name
 
     return count_name(engine_keys(design), design.y)
 

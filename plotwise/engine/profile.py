@@ -230,10 +230,16 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
         _quantitative(fp, values)
         return fp
 
-    # Strings and mixed objects.
+    _text(fp, s)
+    return fp
+
+
+def _text(fp: FieldProfile, s: pd.Series) -> None:
+    """Strings and mixed objects: dates held as text, or labels."""
+    ev = fp.evidence
     fp.top_labels = _top_labels(s)
     fp.labels = _all_labels(s)
-    if pd.api.types.is_object_dtype(dtype):
+    if pd.api.types.is_object_dtype(s.dtype):
         kinds = {type(v).__name__ for v in s.dropna().head(1000)}
         if kinds - {"str"}:
             fp.as_text = True
@@ -243,14 +249,13 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
         fp.parse_dates = True
         ev.append("text that parses as dates")
         _time_spacing(fp, pd.to_datetime(s, errors="coerce", format="ISO8601"))
-        return fp
+        return
     fp.level = "nominal"
     ev.append(f"{fp.distinct} distinct labels")
     if fp.distinct > THRESHOLDS["max_categories"]:
         ev.append(
             f"more than {THRESHOLDS['max_categories']} labels: identifier-like, not used as a category"
         )
-    return fp
 
 
 def _numeric_values(s: pd.Series) -> np.ndarray:

@@ -38,7 +38,7 @@ def say_error(message: str) -> None:
 def is_frame(v) -> bool:
     """A pandas DataFrame or data held by an engine plotwise reads (Polars, PyArrow, DuckDB,
     Dask, Spark)."""
-    from plotwise.sources.engines import is_engine_data
+    from plotwise.sources.base import is_engine_data
 
     return isinstance(v, pd.DataFrame) or is_engine_data(v)
 
