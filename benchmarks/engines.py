@@ -88,7 +88,8 @@ def main() -> None:
         r = json.loads(run.stdout.strip().splitlines()[-1])
         r.update(engine=engine, task=task)
         results.append(r)
-        workers = "" if not r["workers_mb"] else " workers " + "/".join(f"{w:.0f}" for w in r["workers_mb"]) + " MB"
+        workers = ("" if not r["workers_mb"]
+                   else " workers " + "/".join(f"{w:.0f}" for w in r["workers_mb"]) + " MB")
         print(f"{engine:7s} {task:13s} rows {r['rows']:>12,}  advise {r['advise_s']:7.1f} s  "
               f"show {r['show_s']:6.1f} s  peak {r['peak_mb']:6.0f} MB{workers}  top {', '.join(r['top'])}",
               flush=True)

@@ -60,44 +60,40 @@ def render(fig) -> None:
     fig.savefig(buf, format="png", dpi=100)
 
 
+def _pie(df, x, y, ax):
+    s = df.groupby(x)[y].sum()
+    ax.pie(s.values, labels=s.index)
+
+
+PLAIN = {
+    "bar": lambda df, x, y, ax: sns.barplot(data=df, x=x, y=y, ax=ax),
+    "dot": lambda df, x, y, ax: sns.pointplot(data=df, x=y, y=x, linestyle="none", ax=ax),
+    "line": lambda df, x, y, ax: sns.lineplot(data=df, x=x, y=y, ax=ax),
+    "box": lambda df, x, y, ax: sns.boxplot(data=df, x=x, y=y, ax=ax),
+    "violin": lambda df, x, y, ax: sns.violinplot(data=df, x=x, y=y, ax=ax),
+    "strip": lambda df, x, y, ax: sns.stripplot(data=df, x=x, y=y, ax=ax),
+    "histogram": lambda df, x, y, ax: sns.histplot(data=df, x=x, ax=ax),
+    "density": lambda df, x, y, ax: sns.kdeplot(data=df, x=x, ax=ax),
+    "ecdf": lambda df, x, y, ax: sns.ecdfplot(data=df, x=x, ax=ax),
+    "scatter": lambda df, x, y, ax: sns.scatterplot(data=df, x=x, y=y, ax=ax),
+    "regression": lambda df, x, y, ax: sns.regplot(data=df, x=x, y=y, ax=ax),
+    "hexbin": lambda df, x, y, ax: ax.hexbin(df[x], df[y]),
+    "count-bar": lambda df, x, y, ax: sns.countplot(data=df, x=x, ax=ax),
+    "pie": _pie,
+    "stacked-bar": lambda df, x, y, ax: sns.histplot(data=df, y=x, weights=y, ax=ax),
+    "heatmap": lambda df, x, y, ax: sns.heatmap(df.pivot_table(index=x, values=y, aggfunc="sum"),
+                                                ax=ax),
+}
+PLAIN["area"] = PLAIN["line"]
+PLAIN["stacked-bar-100"] = PLAIN["grouped-bar"] = PLAIN["stacked-bar"]
+
+
 def plain(kind: str, df: pd.DataFrame, x: str, y: str | None, ax) -> None:
     """The plain seaborn (or matplotlib, where seaborn has no such chart) call for a kind, on the
     full data with default arguments."""
-    if kind in ("bar",):
-        sns.barplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "dot":
-        sns.pointplot(data=df, x=y, y=x, linestyle="none", ax=ax)
-    elif kind in ("line", "area"):
-        sns.lineplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "box":
-        sns.boxplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "violin":
-        sns.violinplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "strip":
-        sns.stripplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "histogram":
-        sns.histplot(data=df, x=x, ax=ax)
-    elif kind == "density":
-        sns.kdeplot(data=df, x=x, ax=ax)
-    elif kind == "ecdf":
-        sns.ecdfplot(data=df, x=x, ax=ax)
-    elif kind == "scatter":
-        sns.scatterplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "regression":
-        sns.regplot(data=df, x=x, y=y, ax=ax)
-    elif kind == "hexbin":
-        ax.hexbin(df[x], df[y])
-    elif kind == "count-bar":
-        sns.countplot(data=df, x=x, ax=ax)
-    elif kind == "pie":
-        s = df.groupby(x)[y].sum()
-        ax.pie(s.values, labels=s.index)
-    elif kind in ("stacked-bar-100", "stacked-bar", "grouped-bar"):
-        sns.histplot(data=df, y=x, weights=y, ax=ax)
-    elif kind == "heatmap":
-        sns.heatmap(df.pivot_table(index=x, values=y, aggfunc="sum"), ax=ax)
-    else:
+    if kind not in PLAIN:
         raise ValueError(kind)
+    PLAIN[kind](df, x, y, ax)
 
 
 def measure(n: int, task: str, skip: list[str]) -> dict:
@@ -147,7 +143,8 @@ def main() -> None:
     import sys
 
     if len(sys.argv) > 1 and sys.argv[1] == "--one":
-        print(json.dumps(measure(int(sys.argv[2]), sys.argv[3], sys.argv[4].split(",") if sys.argv[4] else [])))
+        tasks = sys.argv[4].split(",") if sys.argv[4] else []
+        print(json.dumps(measure(int(sys.argv[2]), sys.argv[3], tasks)))
         return
     sizes = [int(float(s)) for s in os.environ.get("BENCH_SIZES", "1e4,1e5,1e6,1e7").split(",")]
     OUT.mkdir(parents=True, exist_ok=True)
@@ -185,7 +182,8 @@ def main() -> None:
         w = csv.DictWriter(f, fieldnames=list(rows[0]))
         w.writeheader()
         w.writerows(rows)
-    print(f"\nmachine: {os.cpu_count()} cores, {os.sysconf('SC_PAGE_SIZE') * os.sysconf('SC_PHYS_PAGES') / 2**30:.0f} GiB RAM, "
+    ram = os.sysconf('SC_PAGE_SIZE') * os.sysconf('SC_PHYS_PAGES') / 2**30
+    print(f"\nmachine: {os.cpu_count()} cores, {ram:.0f} GiB RAM, "
           f"Python {platform.python_version()}, pandas {pd.__version__}, seaborn {sns.__version__}; "
           f"{time.strftime('%Y-%m-%d')}")
     print(f"wrote {OUT / 'results.csv'}")

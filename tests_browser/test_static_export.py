@@ -58,7 +58,8 @@ def test_cli_page_for_a_parquet_file_reads_offline(browser, shots, tmp_path):
     page, blocked = offline_page(browser)
     page.goto(out.as_uri())
     page.wait_for_load_state("load")
-    done, width = page.evaluate("""(() => { const i = document.images[0]; return [i.complete, i.naturalWidth]; })()""")
+    done, width = page.evaluate(
+        """(() => { const i = document.images[0]; return [i.complete, i.naturalWidth]; })()""")
     assert done and width > 1000
     text = page.locator("body").inner_text()
     for part in ("Hazards", "skewed", "All candidate designs", "DuckDB computed", "Code for 1. bar"):

@@ -15,7 +15,8 @@ import plotwise
 from plotwise.demo import demo_data
 
 data = demo_data()
-sailings, daily, fares, survey, seasons = (data[k] for k in ("sailings", "daily", "fares", "survey", "seasons"))"""
+names = ("sailings", "daily", "fares", "survey", "seasons")
+sailings, daily, fares, survey, seasons = (data[k] for k in names)"""
 
 CAUTION = ("*plotwise's advice is heuristic. Charts behind medical, safety or financial decisions "
            "deserve review by someone accountable for them.* The data below is invented: an "

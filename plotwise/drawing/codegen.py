@@ -47,7 +47,8 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
         stat = "median" if design.stat == "median" else "sum"
         cnt = engine_count_name(design)
         lines = [f"# {name} computes one row per group from all {n:,} rows; only those come back.",
-                 f"agg = {chained(grouped_expr(src, keys, measure, stat, finite=measure in quantitative, frame=frame), 6)}"]
+                 "agg = " + chained(grouped_expr(src, keys, measure, stat,
+                                                  finite=measure in quantitative, frame=frame), 6)]
         items = [f"{c!r}: {column_expr(profile.fields[c], 'agg')}" for c in keys]
         if measure:
             items.append(f"{measure!r}: agg[{measure!r}].astype(\"float64\")")
@@ -61,7 +62,8 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     items = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in cols)
     drop = "" if design.options.matrix else ".dropna()"
     return [f"# {name} picks {what}; only those come back.",
-            f"d = {chained(sample_expr(src, cols, k, n, complete=not design.options.matrix, finite=fin, frame=frame), 4)}",
+            "d = " + chained(sample_expr(src, cols, k, n, complete=not design.options.matrix,
+                                         finite=fin, frame=frame), 4),
             f"d = pd.DataFrame({{{items}}}, copy=False){drop}"]
 
 
@@ -84,7 +86,8 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     if design.options.sample:
         big, k = design.options.sample
         lines += [f"if len(d) > {big}:  # draw a seeded random sample of the rows",
-                  f"    d = d.iloc[np.sort(np.random.default_rng(0).choice(len(d), size={k}, replace=False))]"]
+                  "    d = d.iloc[np.sort(np.random.default_rng(0).choice(len(d), "
+                  f"size={k}, replace=False))]"]
     return lines
 
 

@@ -283,7 +283,8 @@ def _scatter(c: Ctx) -> list[str]:
     d = c.d
     hue = ""
     if d.hue:
-        hue = (f", hue={c.data}[{d.hue!r}].astype(str), hue_order=sorted({c.data}[{d.hue!r}].astype(str).unique()), "
+        hue = (f", hue={c.data}[{d.hue!r}].astype(str), "
+               f"hue_order=sorted({c.data}[{d.hue!r}].astype(str).unique()), "
                f"palette={c.palette(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
     lines = [f"alpha = 1.0 if len({c.data}) <= 300 else max(0.15, (300 / len({c.data})) ** 0.5)",
              f"sns.scatterplot(x={c.data}[{d.x!r}], y={c.data}[{d.y!r}]{hue}, s=36, alpha=alpha, "
@@ -313,7 +314,8 @@ def _regression(c: Ctx) -> list[str]:
                 _legend(c),
                 ] + _labels(c, d.x, d.y) + _style(c, None)
     return [f"sns.regplot(data={c.data}, x={d.x!r}, y={d.y!r}, {ci}, color={MAIN_COLOUR!r}, "
-            f"scatter_kws={{\"s\": 16, \"alpha\": 0.5}}, line_kws={{\"color\": {OKABE_ITO[3]!r}}}, ax={c.ax})",
+            f"scatter_kws={{\"s\": 16, \"alpha\": 0.5}}, "
+            f"line_kws={{\"color\": {OKABE_ITO[3]!r}}}, ax={c.ax})",
             ] + _labels(c, d.x, d.y) + _style(c, None)
 
 

@@ -126,7 +126,8 @@ def _boxlike(c: Ctx, kind: str) -> list[str]:
         lines.append("order = sorted(g.unique())")
     colour = f"color={MAIN_COLOUR!r}"
     if d.horizontal:
-        lines.append(f"sns.{func}(x={data}[{var!r}], y=g, order=order, orient=\"h\", {colour}{extra}, ax={c.ax})")
+        lines.append(f"sns.{func}(x={data}[{var!r}], y=g, order=order, orient=\"h\", "
+                     f"{colour}{extra}, ax={c.ax})")
         lines += _labels(c, var, group) + _style(c, "x")
         if logs:
             lines.append(f'{c.ax}.set_xscale("log")')
@@ -148,7 +149,8 @@ def _count_bar(c: Ctx) -> list[str]:
                 else f"order = list({c.grouped([d.x])}.sort_values(ascending=False, kind=\"stable\").index)",
                 f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
                 f"sns.barplot(data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, order=[str(o) for o in order], "
-                f"hue_order=sorted(v[{d.hue!r}].unique()), palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
+                f"hue_order=sorted(v[{d.hue!r}].unique()), "
+                f"palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
                 f"errorbar=None, ax={c.ax})",
                 ] + _labels(c, d.x, "number of rows") + _style(c, "y")
     if f.level == "nominal":

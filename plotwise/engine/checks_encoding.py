@@ -134,7 +134,8 @@ def _overplotting(ctx: HazardContext) -> list[Hazard]:
         return []
     n = ctx.stats.points
     return [Hazard("overplotting", sev,
-                   f"about {hidden:.0%} of the {n} points fall on top of an earlier point at the drawn marker size, so dense regions look no denser "
+                   f"about {hidden:.0%} of the {n} points fall on top of an earlier point at the "
+                   "drawn marker size, so dense regions look no denser "
                    "than sparse ones.",
                    "use a hexbin or 2-D histogram, or smaller, semi-transparent markers "
                    "(alpha ≈ 0.2), or a random sample", (d.kind,),

@@ -92,7 +92,8 @@ class LightnessProfile:
 
 
 def lightness_profile(rgb: np.ndarray) -> LightnessProfile:
-    """Classify a colormap, given as 256 sRGB samples along it, by its lightness: monotonic (sequential), one turn in the middle with
+    """Classify a colormap, given as 256 sRGB samples along it, by its lightness: monotonic
+    (sequential), one turn in the middle with
     matched halves (diverging), or rising and falling (non-monotonic, like a rainbow).
 
     Lightness is smoothed over 9 of 256 steps before its turns are counted (our own rule)."""
@@ -106,7 +107,8 @@ def lightness_profile(rgb: np.ndarray) -> LightnessProfile:
     at = float((turns[0] + w // 2) / (len(J) - 1)) if len(turns) else None
     if len(turns) == 0:
         kind = "sequential"
-    elif (len(turns) == 1 and abs(at - 0.5) <= THRESHOLDS["diverging_centre"] and asym < THRESHOLDS["diverging_asymmetry"]
+    elif (len(turns) == 1 and abs(at - 0.5) <= THRESHOLDS["diverging_centre"]
+          and asym < THRESHOLDS["diverging_asymmetry"]
           and abs(J[0] - J[-1]) < THRESHOLDS["diverging_asymmetry"]):
         kind = "diverging"
     else:

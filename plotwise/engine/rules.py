@@ -35,16 +35,10 @@ MACKINLAY_1986 = {
     ),
 }
 
-# Cleveland, W. S. & McGill, R. (1984). Graphical perception. JASA 79(387).
-# Elementary perceptual tasks, most to least accurate; ties within a level.
-CLEVELAND_MCGILL_1984 = (
-    ("position along a common scale",),
-    ("position along non-aligned scales",),
-    ("length", "direction", "angle"),
-    ("area",),
-    ("volume", "curvature"),
-    ("shading", "colour saturation"),
-)
+# Cleveland, W. S. & McGill, R. (1984). Graphical perception. JASA 79(387): position along a
+# common scale, then along non-aligned scales, then length, direction and angle, then area,
+# volume and curvature, then shading and saturation. The table above already orders these for
+# quantities; NON_ALIGNED_FACTOR below applies the second step to stacked segments.
 
 # The encoding channels a Design may use, mapped to the perceptual channel of the rankings above.
 # Temporal data is ranked as ordinal data (it is ordered; its intervals are handled by data fit).

@@ -87,7 +87,8 @@ def bin_rule_shapes(values, log: bool = False) -> list[BinRuleShape]:
             continue
         counts, _ = np.histogram(v, bins=edges)
         out.append(BinRuleShape(name, len(counts), float(edges[1] - edges[0]), histogram_peaks(counts)))
-    for name, factor in (("half the Freedman–Diaconis width", 0.5), ("twice the Freedman–Diaconis width", 2.0)):
+    for name, factor in (("half the Freedman–Diaconis width", 0.5),
+                         ("twice the Freedman–Diaconis width", 2.0)):
         width = fd_width * factor
         if width <= 0:
             continue

@@ -99,7 +99,8 @@ def _check_pie(ax: Axes, a: AxesAudit) -> None:
         problems.append(f"{len(small)} slice(s) under {THRESHOLDS['pie_min_share']:.0%} (smallest "
                         f"{min(fractions):.1%})")
     if problems:
-        a.hazards.append(Hazard("too-many-slices", "warn", f"{a.name}: a pie with " + " and ".join(problems) + ".",
+        a.hazards.append(Hazard("too-many-slices", "warn",
+                                f"{a.name}: a pie with " + " and ".join(problems) + ".",
                                 "use a bar chart sorted by value, or keep the 4–5 largest parts "
                                 "and group the rest", ("pie",)))
     labelled = []
@@ -151,7 +152,8 @@ def _check_colours(ax: Axes, a: AxesAudit) -> None:
     sev = hue_severity(n)
     if sev and not is_pie:
         a.hazards.append(Hazard("too-many-colors", sev,
-                                f"{a.name}: {n} colours in the legend; readers tell apart about 7 (Miller 1956).",
+                                f"{a.name}: {n} colours in the legend; readers tell apart "
+                                "about 7 (Miller 1956).",
                                 "draw small multiples, or highlight a few and grey the rest"))
     if 2 <= n <= 30:
         worst = worst_confusion(colours)
@@ -285,7 +287,8 @@ def _check_ticks(ax: Axes, a: AxesAudit, renderer) -> None:
         overlaps = sum(1 for b1, b2 in zip(boxes, boxes[1:]) if b1.overlaps(b2))
         if overlaps:
             a.hazards.append(Hazard("crowded-ticks", "warn",
-                                    f"{a.name}: {overlaps} pair(s) of {axis.axis_name} tick labels overlap and "
+                                    f"{a.name}: {overlaps} pair(s) of {axis.axis_name} tick "
+                                    "labels overlap and "
                                     "cannot be read.",
                                     "rotate the labels, show fewer ticks, or turn the chart horizontal"))
 
@@ -295,7 +298,8 @@ def _check_3d(ax: Axes, a: AxesAudit) -> None:
         a.hazards.append(Hazard("three-d", "warn",
                                 f"{a.name}: a 3-D projection; perspective makes lengths and positions "
                                 "depend on the viewing angle, and bars hide each other.",
-                                "draw the data flat in 2-D (use colour or small multiples for a third variable)"))
+                                "draw the data flat in 2-D (use colour or small multiples "
+                                "for a third variable)"))
 
 
 def _check_dual(axes: list[Axes], audits: list[AxesAudit]) -> None:

@@ -19,7 +19,8 @@ def recover_frame(ax: Axes):
     if orient:
         axis = ax.xaxis if orient == "v" else ax.yaxis
         labels = [t.get_text() for t in axis.get_ticklabels()]
-        values = [(r.get_y() + r.get_height()) if orient == "v" else (r.get_x() + r.get_width()) for r in rects]
+        values = [(r.get_y() + r.get_height()) if orient == "v" else (r.get_x() + r.get_width())
+                  for r in rects]
         if len(labels) == len(values) and all(labels):
             name = (ax.get_ylabel() if orient == "v" else ax.get_xlabel()) or "value"
             cat = (ax.get_xlabel() if orient == "v" else ax.get_ylabel()) or "category"

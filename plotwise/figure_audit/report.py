@@ -15,6 +15,16 @@ from plotwise.engine.hazards import Hazard, by_severity
 from plotwise.engine.vocab import severity_rank
 from plotwise.errors import PlotwiseError
 
+# Codes only the audit of drawn figures reports (its other codes are the engine's registered
+# hazard codes, with their meaning and severity order).
+AUDIT_ONLY_CODES = {
+    "three-d": "3-D axes",
+    "dual-axis": "two value axes on one x",
+    "area-encoding": "marker size encodes a quantity",
+    "unlabelled-axis": "a value axis with no label",
+    "crowded-ticks": "overlapping tick labels",
+}
+
 
 @dataclass
 class AxesAudit:
@@ -88,7 +98,8 @@ def _is_colorbar(ax: Axes) -> bool:
 
 
 def _name(ax: Axes, i: int) -> str:
-    title = ax.get_title() or (ax.figure._suptitle.get_text() if getattr(ax.figure, "_suptitle", None) else "")
+    sup = getattr(ax.figure, "_suptitle", None)
+    title = ax.get_title() or (sup.get_text() if sup else "")
     return f"axes {i + 1}" + (f" '{title[:40]}'" if title else "")
 
 

@@ -58,7 +58,8 @@ STYLE = """
 <style>
 .pw-advice{font-family:system-ui,-apple-system,Segoe UI,sans-serif;font-size:13px;max-width:1400px}
 .pw-advice table{border-collapse:collapse;margin:6px 0}
-.pw-advice th,.pw-advice td{border-bottom:1px solid #e3e3e3;padding:3px 8px;text-align:left !important;vertical-align:top}
+.pw-advice th,.pw-advice td{border-bottom:1px solid #e3e3e3;padding:3px 8px;
+  text-align:left !important;vertical-align:top}
 .pw-advice th{background:#f5f5f5}
 .pw-advice .pw-x{color:#888}
 .pw-advice img{max-width:100%;height:auto}

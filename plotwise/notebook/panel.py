@@ -132,7 +132,8 @@ class AdvicePanel(widgets.VBox):
             shown = self.advice.request
             cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))
             self.message.value = (f"<span style='color:#B00020'>{_escape(exc)}</span><br>"
-                                  f"<i>Still showing the previous advice ({_escape(self.advice.task or 'any task')}"
+                                  "<i>Still showing the previous advice "
+                                  f"({_escape(self.advice.task or 'any task')}"
                                   f"{'; ' + _escape(cols) if cols else ''}).</i>")
             return
         self.message.value = ""

@@ -175,5 +175,6 @@ def open_code(src: Source, name: str = "df") -> list[str]:
     if src.path:
         reader = "read_parquet" if src.file_format == "parquet" else "read_csv"
         lines += ["import duckdb", "",
-                  f"{name} = duckdb.{reader}({src.path!r})  # scanned lazily: DuckDB reads only what each query needs"]
+                  f"{name} = duckdb.{reader}({src.path!r})"
+                  "  # scanned lazily: DuckDB reads only what each query needs"]
     return lines

@@ -1,4 +1,5 @@
-"""Every kind draws, and each design's .code() redraws the same marks."""
+"""Every kind draws the numbers pandas computes for it (independently of plotwise's generated
+code), and each design's .code() redraws the same marks."""
 
 import matplotlib as mpl
 import matplotlib.pyplot as plt
@@ -31,6 +32,89 @@ def marks(fig) -> list:
     return out
 
 
+AGG = {"sum": "sum", "mean": "mean", "median": "median", "value": "sum"}
+
+
+def pandas_numbers(d, df):
+    """The numbers a design must draw, computed here with pandas alone (sorted), or None for
+    kinds whose marks are shapes rather than one mark per number (box, violin, density...)."""
+    if d.facet is not None or d.options.matrix:
+        return None
+    w = df[d.columns].dropna()
+
+    def per(keys):
+        g = w.groupby(keys, observed=True)
+        return g.size() if d.y is None or d.stat == "count" else g[d.y].agg(AGG[d.stat])
+
+    k = d.kind
+    if k in ("bar", "dot", "line", "area", "count-bar", "pie") and not d.hue:
+        v = per([d.x])
+        if d.options.share or k == "pie":
+            v = v / v.sum() * 100
+        return sorted(v.to_numpy(dtype=float))
+    if k == "stacked-bar-100":
+        bars, parts = (d.hue, d.x) if d.task == "proportion" else (d.x, d.hue)
+        if bars is None:
+            v = per([parts])
+            return sorted((v / v.sum() * 100).to_numpy(dtype=float))
+        t = per([bars, parts]).unstack(parts, fill_value=0)
+        return sorted(t.div(t.sum(axis=1), axis=0).mul(100).to_numpy(dtype=float).ravel())
+    if k in ("grouped-bar", "stacked-bar", "line", "dot", "bar") or (
+            k == "heatmap" and d.task != "correlate"):
+        v = per([d.x, d.hue])
+        if d.options.share:
+            v = v / v.groupby(level=1).transform("sum") * 100
+        if k == "stacked-bar":  # the empty segments of missing combinations are drawn as 0
+            v = v.unstack(fill_value=0).stack()
+        return sorted(v.to_numpy(dtype=float))
+    if k == "slope":
+        return sorted(per([d.hue, d.x]).unstack(d.x).dropna().to_numpy(dtype=float).ravel())
+    if k == "difference-bar":
+        t = per([d.x, d.hue]).unstack(d.hue).dropna()
+        return sorted((t.iloc[:, 1] - t.iloc[:, 0]).to_numpy(dtype=float))
+    if k == "histogram" and not d.hue:
+        v = w[d.x].to_numpy(dtype=float)
+        return sorted(np.histogram(v, bins=np.histogram_bin_edges(v, bins=d.options.bins))[0]
+                      .astype(float))
+    if k in ("scatter", "regression"):
+        return [float(len(w))]
+    return None
+
+
+def drawn_numbers(d, ax):
+    """The same numbers read back from the drawn artists."""
+    from matplotlib.collections import PathCollection, QuadMesh
+    from matplotlib.patches import Rectangle, Wedge
+
+    k = d.kind
+    if k == "pie":
+        wedges = [p for p in ax.patches if isinstance(p, Wedge)]
+        return sorted((w.theta2 - w.theta1) / 360 * 100 for w in wedges)
+    if k in ("line", "area", "slope"):
+        ys = np.concatenate([np.asarray(ln.get_ydata(), dtype=float) for ln in ax.lines
+                             if len(ln.get_ydata()) > 1])
+        return sorted(ys[np.isfinite(ys)])
+    if k == "dot":
+        offs = np.concatenate([c.get_offsets() for c in ax.collections
+                               if isinstance(c, PathCollection)])
+        col = 0 if d.horizontal else 1
+        return sorted(np.asarray(offs, dtype=float)[:, col])
+    if k == "heatmap":
+        mesh = next(c for c in ax.collections if isinstance(c, QuadMesh))
+        a = np.ma.masked_invalid(np.asarray(mesh.get_array(), dtype=float))
+        return sorted(a.compressed())
+    if k in ("scatter", "regression"):
+        return [float(sum(len(c.get_offsets()) for c in ax.collections
+                          if isinstance(c, PathCollection)))]
+    rects = [p for p in ax.patches if isinstance(p, Rectangle) and p is not ax.patch]
+    across = d.horizontal or k in ("difference-bar", "stacked-bar-100") or (
+        k == "stacked-bar")
+    # (seaborn adds empty rectangles as legend handles; empty segments are empty bars too)
+    vals = [(r.get_width() if across else r.get_height()) for r in rects
+            if r.get_width() != 0 and r.get_height() != 0]
+    return sorted(float(v) for v in vals)
+
+
 def all_designs():
     for i, (df, kw) in enumerate(CASES):
         advice = plotwise.advise(df, **kw)
@@ -49,6 +133,12 @@ def test_design_draws_and_code_matches(df, design):
     draw(design, df, ax)
     ours = marks(fig)
     assert any(len(items) > 1 for items in ours), "nothing drawn"
+    expected = pandas_numbers(design, df)
+    if expected is not None and design.kind not in ("pie", "line", "area", "slope", "dot",
+                                                    "heatmap", "scatter", "regression"):
+        expected = [v for v in expected if v != 0]
+    if expected is not None:
+        np.testing.assert_allclose(drawn_numbers(design, ax), expected, rtol=1e-6, atol=1e-9)
     code = design.code("frame")
     namespace = {"frame": df}
     exec(compile(code, "<snippet>", "exec"), namespace)
@@ -100,7 +190,8 @@ def test_histogram_bins_match_numpy():
     fig = Figure()
     ax = fig.subplots()
     draw(h, f, ax)
-    counts, edges = np.histogram(f["petal length (cm)"], bins=np.histogram_bin_edges(f["petal length (cm)"], bins=rule))
+    v = f["petal length (cm)"]
+    counts, edges = np.histogram(v, bins=np.histogram_bin_edges(v, bins=rule))
     assert [p.get_height() for p in ax.patches] == list(counts)
     assert f"{len(counts)} bins" in " ".join(h.reasons)
 

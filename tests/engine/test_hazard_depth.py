@@ -16,7 +16,8 @@ ANSCOMBE = {
     "I": (ANSCOMBE_X, [8.04, 6.95, 7.58, 8.81, 8.33, 9.96, 7.24, 4.26, 10.84, 4.82, 5.68]),
     "II": (ANSCOMBE_X, [9.14, 8.14, 8.74, 8.77, 9.26, 8.10, 6.13, 3.10, 9.13, 7.26, 4.74]),
     "III": (ANSCOMBE_X, [7.46, 6.77, 12.74, 7.11, 7.81, 8.84, 6.08, 5.39, 8.15, 6.42, 5.73]),
-    "IV": ([8, 8, 8, 8, 8, 8, 8, 19, 8, 8, 8], [6.58, 5.76, 7.71, 8.84, 8.47, 7.04, 5.25, 12.50, 5.56, 7.91, 6.89]),
+    "IV": ([8, 8, 8, 8, 8, 8, 8, 19, 8, 8, 8],
+           [6.58, 5.76, 7.71, 8.84, 8.47, 7.04, 5.25, 12.50, 5.56, 7.91, 6.89]),
 }
 ASSOCIATION_CODES = {"nonlinear", "influential-point", "reversal-in-groups"}
 
@@ -89,7 +90,8 @@ def test_correlation_reversal_within_groups():
     df = pd.concat(parts, ignore_index=True)
     assert "reversal-in-groups" in plotwise.advise(df, "correlate", x="x", y="y", hue="g").hazard_codes()
     same = df.assign(y=df["x"] + rng.normal(0, 0.2, len(df)))
-    assert "reversal-in-groups" not in plotwise.advise(same, "correlate", x="x", y="y", hue="g").hazard_codes()
+    same_advice = plotwise.advise(same, "correlate", x="x", y="y", hue="g")
+    assert "reversal-in-groups" not in same_advice.hazard_codes()
 
 
 @pytest.mark.parametrize("cmap,kind", [("viridis", "sequential"), ("cividis", "sequential"),
@@ -174,8 +176,9 @@ def test_headlines_exact():
     assert plotwise.advise(two, "compare", x="team", y="sales").headline == \
         "'a' changed most: 'sales' went from 100 to 150 between 2023 and 2024 (+50, +50.0%)."
     pts = two.rename(columns={"sales": "share_pct"}).assign(share_pct=[30.0, 33.2, 50.0, 49.0])
-    assert plotwise.advise(pts, "compare", x="team", y="share_pct").headline == \
-        "'a' changed most: 'share_pct' went from 30.0% to 33.2% between 2023 and 2024 (+3.2 percentage points)."
+    assert plotwise.advise(pts, "compare", x="team", y="share_pct").headline == (
+        "'a' changed most: 'share_pct' went from 30.0% to 33.2% between 2023 and 2024 "
+        "(+3.2 percentage points).")
 
 
 def test_perceived_magnitude_in_reasons():

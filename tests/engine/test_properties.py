@@ -55,7 +55,8 @@ def roles(draw_, df):
 
 @settings(max_examples=EXAMPLES, deadline=None, derandomize=True,
           suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
-@given(df=frames(), task=st.sampled_from([None, "compare", "trend", "proportion", "correlate", "distribution"]),
+@given(df=frames(),
+       task=st.sampled_from([None, "compare", "trend", "proportion", "correlate", "distribution"]),
        data=st.data())
 def test_any_frame_gives_advice_or_clear_error(df, task, data):
     COUNT["frames"] += 1

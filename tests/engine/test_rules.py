@@ -1,16 +1,39 @@
 """The channel tables and scores reproduce the published rankings."""
 
+import pandas as pd
 import pytest
 
-from plotwise.engine.rules import CLEVELAND_MCGILL_1984, MACKINLAY_1986
-from plotwise.engine.scoring import channel_score
+from plotwise import Design, profile_frame
+from plotwise.engine.design import DesignOptions
+from plotwise.engine.rules import MACKINLAY_1986
+from plotwise.engine.scoring import channel_score, effectiveness
+
+PROFILE = profile_frame(pd.DataFrame({"g": list("abcdab") * 3, "h": list("xy") * 9,
+                                      "v": [float(i) for i in range(18)]}))
 
 
-def test_mackinlay_quantitative_order():
-    # Mackinlay (1986), quantitative column, as in ../shared/reference.md section 1.
-    assert MACKINLAY_1986["quantitative"] == (
-        "position", "length", "angle", "slope", "area", "volume", "density",
-        "colour saturation", "colour hue", "texture", "connection", "containment", "shape")
+def _eff(kind, encoding, roles=None, **options):
+    d = Design(kind, "compare", encoding, roles or {"measure": "v", "category": "g"}, x="g",
+               y="v", options=DesignOptions(**options))
+    return effectiveness(d, PROFILE)[0]
+
+
+def test_scorer_ranks_a_measure_by_mackinlay_quantitative_order():
+    # Mackinlay (1986), quantitative column (../shared/reference.md section 1): position (1st) >
+    # length (2nd) > density / grey level (7th). Designs that differ only in the measure's channel
+    # (the category stays on x position): the scorer must rank them in that order.
+    position = _eff("dot", {"x position": "g", "y position": "v"})
+    length = _eff("bar", {"x position": "g", "length": "v"})
+    lightness = _eff("heatmap", {"x position": "g", "lightness": "v"})
+    assert position > length > lightness
+
+
+def test_scorer_ranks_a_category_by_mackinlay_nominal_order():
+    # Mackinlay (1986), nominal column: position (1st) > colour hue (2nd). The measure stays on
+    # length; only the category's channel differs.
+    on_position = _eff("bar", {"x position": "g", "length": "v"})
+    on_hue = _eff("bar", {"hue": "g", "length": "v"})
+    assert on_position > on_hue
 
 
 def test_mackinlay_ordinal_and_nominal_order():
@@ -35,10 +58,19 @@ def test_scores_follow_mackinlay_for_quantities():
 def test_scores_follow_cleveland_mcgill():
     # Cleveland & McGill (1984): position (level 1) beats length/angle (level 3) beats area
     # (level 4) beats shading/saturation (level 6).
-    levels = {t: i for i, group in enumerate(CLEVELAND_MCGILL_1984) for t in group}
-    assert levels["position along a common scale"] < levels["length"] < levels["area"] < levels["shading"]
     assert channel_score("quantitative", "x position") > channel_score("quantitative", "length") \
         > channel_score("quantitative", "area") > channel_score("quantitative", "lightness")
+
+
+def test_scorer_puts_non_aligned_segments_below_aligned_bars():
+    # Cleveland & McGill (1984): judgements of position along non-aligned scales are less
+    # accurate than along a common scale; stacked segments (shifting baselines) must score
+    # below grouped bars with the same encoding.
+    enc = {"x position": "g", "length": "v", "hue": "h"}
+    roles = {"measure": "v", "category": "g", "hue": "h"}
+    aligned = _eff("grouped-bar", enc, roles)
+    stacked = _eff("stacked-bar", enc, roles, non_aligned=True)
+    assert stacked < aligned
 
 
 def test_nominal_hue_beats_length_for_categories():

@@ -147,7 +147,8 @@ def test_same_advice_on_every_engine(engine, to_engine):
         assert other.headline == base.headline, label
         for name, f in base.fields.items():
             g = other.fields[name]
-            assert (g.level, g.missing, g.distinct, g.rows) == (f.level, f.missing, f.distinct, f.rows), (label, name)
+            got = (g.level, g.missing, g.distinct, g.rows)
+            assert got == (f.level, f.missing, f.distinct, f.rows), (label, name)
             for stat in ("minimum", "maximum", "mean", "std", "skew"):
                 a, b = getattr(f, stat), getattr(g, stat)
                 assert (a is None) == (b is None), (label, name, stat)
