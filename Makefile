@@ -37,6 +37,7 @@ soak: $(STAMP)
 
 lint: $(STAMP)
 	$(BIN)/ruff check plotwise tests tests_browser tools benchmarks
+	$(BIN)/mypy
 
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py

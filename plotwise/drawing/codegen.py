@@ -59,12 +59,12 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     fin = tuple(quantitative)
     what = (f"a random sample of about {k:,} of the {n:,} complete rows" if n > k
             else f"all {n:,} complete rows")
-    items = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in cols)
+    picked = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in cols)
     drop = "" if design.options.matrix else ".dropna()"
     return [f"# {name} picks {what}; only those come back.",
             "d = " + chained(sample_expr(src, cols, k, n, complete=not design.options.matrix,
                                          finite=fin, frame=frame), 4),
-            f"d = pd.DataFrame({{{items}}}, copy=False){drop}"]
+            f"d = pd.DataFrame({{{picked}}}, copy=False){drop}"]
 
 
 def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:

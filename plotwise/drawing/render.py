@@ -73,7 +73,7 @@ def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = 
     ranks = ranks or list(range(1, len(designs) + 1))
     with plot_style():
         fig = Figure(figsize=(PANEL_WIDTH_IN * len(designs), PANEL_HEIGHT_IN), layout="constrained")
-        subs = np.atleast_1d(fig.subfigures(1, len(designs), wspace=0.02))
+        subs = fig.subfigures(1, len(designs), wspace=0.02, squeeze=False)[0]
         for i, (sub, design) in enumerate(zip(subs, designs)):
             ax = sub.subplots()
             draw(design, df, ax)

@@ -7,8 +7,10 @@ the hazards are attached to that design; the others run once per advice."""
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field
 
+import numpy as np
 import pandas as pd
 
 from plotwise.engine.design import Design
@@ -46,8 +48,8 @@ class HazardContext:
     value_range: tuple[float, float] | None = None
     palette: list[str] | None = None
     cmap: object = None  # the caller's colormap as given (its name, or a Colormap)
-    cmap_rgb: object = None  # that colormap sampled as an (n, 3) array of sRGB values
-    colours: object = None  # (design, n) -> the n colours the design draws (set by drawing)
+    cmap_rgb: np.ndarray | None = None  # that colormap sampled as an (n, 3) array of sRGB values
+    colours: Callable[[Design, int], list] | None = None  # set by drawing
     design: Design | None = None  # set for per-design checks
     working: pd.DataFrame | None = field(default=None, repr=False)
 
@@ -56,7 +58,7 @@ class HazardContext:
 class HazardCheck:
     code: str
     description: str
-    func: object
+    func: Callable[[HazardContext], list[Hazard]]
     per_design: bool
 
 

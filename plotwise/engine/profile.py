@@ -6,12 +6,16 @@ from __future__ import annotations
 
 import warnings
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
 
 import numpy as np
 import pandas as pd
 
 from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
 from plotwise.errors import PlotwiseError
+
+if TYPE_CHECKING:  # for the type checker only: the engine never imports engine-data code
+    from plotwise.sources.base import Source
 
 # Rows looked at when guessing whether strings are dates (a seeded sample, so profiles repeat).
 DATE_SNIFF_ROWS = 200
@@ -68,7 +72,7 @@ class Profile:
     rows: int
     fields: dict[str, FieldProfile]
     sample_rows: int | None = None
-    source: object | None = None  # a sources.Source when an engine holds the data; None: pandas
+    source: Source | None = None  # a sources.Source when an engine holds the data; None: pandas
 
     def __getitem__(self, label: str) -> FieldProfile:
         return self.fields[label]
@@ -90,8 +94,7 @@ def check_frame(df) -> None:
             "support; flatten them first, e.g. df.columns = ['_'.join(map(str, c)) for c in df.columns]."
         )
     labels = [str(c) for c in df.columns]
-    seen: set[str] = set()
-    dupes = sorted({lab for lab in labels if lab in seen or seen.add(lab)})
+    dupes = sorted({lab for lab in labels if labels.count(lab) > 1})
     if dupes:
         raise PlotwiseError(
             f"the frame has duplicate column names {dupes[:5]}; rename them so each is unique, "

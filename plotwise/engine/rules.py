@@ -8,6 +8,8 @@ weight or threshold is a one-line edit with its citation next to it.
 
 from __future__ import annotations
 
+from typing import Any
+
 # --------------------------------------------------------------------------------------------
 # Measurement levels and tasks
 # --------------------------------------------------------------------------------------------
@@ -118,7 +120,7 @@ RICHER_BASE = 0.85
 # --------------------------------------------------------------------------------------------
 # Thresholds used by data fit and hazards
 # --------------------------------------------------------------------------------------------
-THRESHOLDS = {
+THRESHOLDS: dict[str, Any] = {
     # Miller (1956) "7 ± 2"; common practice: up to 7 hues comfortably, never more than about 10.
     "hues_warn": 7,
     "hues_severe": 10,

@@ -53,7 +53,7 @@ def _level_of(profile: Profile, column: str) -> str:
 
 def effectiveness(design: Design, profile: Profile) -> tuple[float, list[str]]:
     """Weighted mean of channel scores, each column weighted by its role."""
-    role_of = {}
+    role_of: dict[str, str] = {}
     for role, col in design.roles.items():
         role_of.setdefault(col, role)
     best: dict[str, tuple[float, str]] = {}
