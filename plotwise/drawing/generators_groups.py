@@ -57,6 +57,18 @@ def _dot(c: Ctx) -> list[str]:
     return lines
 
 
+def _lollipop(c: Ctx) -> list[str]:
+    """A thin stem from zero to each category's value, ending in a dot (less ink than a bar)."""
+    d = c.d
+    lines = _ordered_series(c, d.x) + [
+        f"{c.ax}.hlines(y=labels, xmin=0, xmax=v.values, color={MAIN_COLOUR!r}, linewidth=1.5)",
+        f"{c.ax}.plot(v.values, labels, \"o\", color={MAIN_COLOUR!r}, markersize=6)",
+        f"{c.ax}.set_xlim(left=min(0, float(v.min()) * 1.05))",
+        f"{c.ax}.invert_yaxis()",  # the first category on top, as in a bar chart
+    ]
+    return lines + _labels(c, c.measure_label(), d.x) + _style(c, "x")
+
+
 def _over_time_finish(c: Ctx, f: FieldProfile | None) -> list[str]:
     """Labels and style of a measure drawn over x; dates on x get slanted tick labels."""
     lines = _labels(c, c.d.x, c.measure_label()) + _style(c, "y")

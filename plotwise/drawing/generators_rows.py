@@ -11,6 +11,7 @@ from plotwise.drawing.generators_groups import (
     _heatmap,
     _hexbin,
     _line,
+    _lollipop,
     _pie,
     _regression,
     _scatter,
@@ -167,7 +168,7 @@ def _count_bar(c: Ctx) -> list[str]:
 
 
 register({
-    "bar": _bar, "dot": _dot, "grouped-bar": _grouped_bar,
+    "bar": _bar, "dot": _dot, "lollipop": _lollipop, "grouped-bar": _grouped_bar,
     "stacked-bar": lambda c: _stacked(c, percent=False),
     "stacked-bar-100": lambda c: _stacked(c, percent=True),
     "pie": _pie, "line": _line, "area": lambda c: _line(c, area=True), "slope": _slope,

@@ -98,6 +98,8 @@ def _compare(profile: Profile, r: Roles, agg) -> list[Design]:
                           y=y, stat=stat, zero_based=True, horizontal=horiz))
         out.append(Design("dot", "compare", {"y position": x, "x position": meas}, dict(base),
                           x=x, y=y, stat=stat, horizontal=True))
+        out.append(Design("lollipop", "compare", {"x position": x, "length": meas}, dict(base),
+                          x=x, y=y, stat=stat, zero_based=True, horizontal=True))
         out.append(Design("pie", "compare", {"angle": meas, "hue": x}, dict(base), x=x, y=y,
                           stat=stat))
         out.append(Design("line", "compare", {"x position": x, "y position": meas,

@@ -70,6 +70,8 @@ REGISTRY: dict[str, ChartKind] = {k.name: k for k in (
     _k("dot", {"compare": 0.92, "trend": 0.6, "proportion": 0.8},
        "x position, y position, hue", "groups", "aggregate", "groups", facets=True,
        summarises=True, axis_per_category=True),
+    _k("lollipop", {"compare": 0.85, "proportion": 0.75}, "x position, length", "groups",
+       "aggregate", "groups", length_from_zero=True, summarises=True, axis_per_category=True),
     _k("grouped-bar", {"compare": 0.95, "proportion": 0.75}, "x position, length, hue",
        "groups", "aggregate", "groups", length_from_zero=True, summarises=True,
        axis_per_category=True),

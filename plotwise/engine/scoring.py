@@ -177,7 +177,7 @@ def _headline(design: Design, profile: Profile) -> str:
     measure = f"{what} of '{y}'" if y and design.stat in ("sum", "mean", "median", "value") else (
         f"'{y}'" if y else "row counts")
     x = design.x
-    if k in ("bar", "dot"):
+    if k in ("bar", "dot", "lollipop"):
         s = f"{measure} per '{x}'"
         if design.options.share:
             s = f"each '{x}' as a share of the total {('of ' + repr(y)) if y else 'rows'}"

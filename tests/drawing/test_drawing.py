@@ -47,7 +47,7 @@ def pandas_numbers(d, df):
         return g.size() if d.y is None or d.stat == "count" else g[d.y].agg(AGG[d.stat])
 
     k = d.kind
-    if k in ("bar", "dot", "line", "area", "count-bar", "pie") and not d.hue:
+    if k in ("bar", "dot", "lollipop", "line", "area", "count-bar", "pie") and not d.hue:
         v = per([d.x])
         if d.options.share or k == "pie":
             v = v / v.sum() * 100
@@ -94,6 +94,15 @@ def drawn_numbers(d, ax):
         ys = np.concatenate([np.asarray(ln.get_ydata(), dtype=float) for ln in ax.lines
                              if len(ln.get_ydata()) > 1])
         return sorted(ys[np.isfinite(ys)])
+    if k == "lollipop":  # the dots' positions, and each stem must end at its dot
+        from matplotlib.collections import LineCollection
+
+        dots = np.asarray(ax.lines[0].get_xdata(), dtype=float)
+        stems = next(c for c in ax.collections if isinstance(c, LineCollection))
+        ends = [float(seg[1][0]) for seg in stems.get_segments()]
+        starts = [float(seg[0][0]) for seg in stems.get_segments()]
+        assert ends == list(dots) and set(starts) == {0.0}
+        return sorted(dots)
     if k == "dot":
         offs = np.concatenate([c.get_offsets() for c in ax.collections
                                if isinstance(c, PathCollection)])
@@ -134,7 +143,7 @@ def test_design_draws_and_code_matches(df, design):
     ours = marks(fig)
     assert any(len(items) > 1 for items in ours), "nothing drawn"
     expected = pandas_numbers(design, df)
-    if expected is not None and design.kind not in ("pie", "line", "area", "slope", "dot",
+    if expected is not None and design.kind not in ("pie", "line", "area", "slope", "dot", "lollipop",
                                                     "heatmap", "scatter", "regression"):
         expected = [v for v in expected if v != 0]
     if expected is not None:

@@ -123,8 +123,10 @@ def drawn_numbers(fig) -> list[float]:
             elif isinstance(p, StepPatch):  # a histogram drawn from counts: heights and widths
                 data = p.get_data()
                 out += list(np.asarray(data.values, dtype=float)) + list(np.diff(data.edges))
-        for line in ax.lines:
-            out += [float(v) for v in np.asarray(line.get_ydata(), dtype=float) if v == v]
+        for line in ax.lines:  # values on y, or on x where y holds labels (a horizontal chart)
+            ys = np.asarray(line.get_ydata())
+            vals = ys if ys.dtype.kind in "biuf" else np.asarray(line.get_xdata())
+            out += [float(v) for v in np.asarray(vals, dtype=float) if v == v]
         for c in ax.collections:
             if isinstance(c, PathCollection):
                 out += [float(v) for v in np.asarray(c.get_offsets(), dtype=float).ravel()]
