@@ -12,13 +12,11 @@ import numpy as np
 import pandas as pd
 
 from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
+from plotwise.engine.timeaxis import looks_like_dates, time_spacing
 from plotwise.errors import PlotwiseError
 
 if TYPE_CHECKING:  # for the type checker only: the engine never imports engine-data code
     from plotwise.sources.base import Source
-
-# Rows looked at when guessing whether strings are dates (a seeded sample, so profiles repeat).
-DATE_SNIFF_ROWS = 200
 
 
 @dataclass
@@ -218,7 +216,7 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
     if pd.api.types.is_datetime64_any_dtype(dtype) or isinstance(dtype, pd.PeriodDtype):
         fp.level = "temporal"
         ev.append("date/time values")
-        _time_spacing(fp, s)
+        time_spacing(fp, s)
         return fp
 
     if pd.api.types.is_timedelta64_dtype(dtype):
@@ -247,11 +245,11 @@ def _text(fp: FieldProfile, s: pd.Series) -> None:
         if kinds - {"str"}:
             fp.as_text = True
             ev.append(f"mixed Python values ({', '.join(sorted(kinds))}): compared as text")
-    if _looks_like_dates(s):
+    if looks_like_dates(s):
         fp.level = "temporal"
         fp.parse_dates = True
         ev.append("text that parses as dates")
-        _time_spacing(fp, pd.to_datetime(s, errors="coerce", format="ISO8601"))
+        time_spacing(fp, pd.to_datetime(s, errors="coerce", format="ISO8601"))
         return
     fp.level = "nominal"
     ev.append(f"{fp.distinct} distinct labels")
@@ -297,7 +295,7 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
     if fp.is_integer and has_hint(label, YEAR_NAME_HINTS) and 1000 <= fp.minimum and fp.maximum <= 2999:
         fp.level = "temporal"
         ev.append(f"integer years {int(fp.minimum)}..{int(fp.maximum)} (name says year)")
-        _time_spacing(fp, pd.Series(np.unique(finite)))
+        time_spacing(fp, pd.Series(np.unique(finite)))
         return
     # Small integer codes 1..k: a rating or rank, read as ordinal. (Codes from 0 are more often
     # counts - children, defects - and stay quantitative.)
@@ -327,78 +325,3 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
     fp.share_like = fp.minimum >= 0 and has_hint(label, SHARE_NAME_HINTS)
     if fp.skew is not None and abs(fp.skew) >= 1:
         ev.append(f"skewness {fp.skew:.2f}")
-
-
-def _looks_like_dates(s: pd.Series) -> bool:
-    sample = s.dropna()
-    if len(sample) == 0:
-        return False
-    if len(sample) > DATE_SNIFF_ROWS:
-        sample = sample.sample(DATE_SNIFF_ROWS, random_state=0)
-    if not all(isinstance(v, str) for v in sample):
-        return False
-    if not all(any(ch.isdigit() for ch in v) and any(sep in v for sep in "-/:") for v in sample):
-        return False
-    with warnings.catch_warnings():
-        warnings.simplefilter("ignore")
-        parsed = pd.to_datetime(sample, errors="coerce", format="ISO8601")
-    return bool(parsed.notna().mean() >= 0.95)
-
-
-def _time_spacing(fp: FieldProfile, s: pd.Series) -> None:
-    """Is the spacing between distinct time points regular? Records step and gaps."""
-    ev = fp.evidence
-    values = s.dropna()
-    if isinstance(values.dtype, pd.PeriodDtype):
-        values = values.dt.to_timestamp()
-    if pd.api.types.is_numeric_dtype(values.dtype):  # integer years
-        uniq = np.unique(values.to_numpy(dtype=float))
-        fp.distinct = len(uniq)
-        if len(uniq) < 3:
-            fp.time_regular = len(uniq) == 2 or None
-            return
-        steps = np.diff(uniq)
-        unit = "years"
-    else:
-        try:
-            uniq = pd.DatetimeIndex(pd.unique(values)).sort_values()
-        except (TypeError, ValueError):
-            return
-        fp.distinct = len(uniq)
-        if len(uniq):
-            fp.minimum = None
-            fp.maximum = None
-        if len(uniq) < 3:
-            fp.time_regular = len(uniq) == 2 or None
-            return
-        try:
-            with warnings.catch_warnings():
-                warnings.simplefilter("ignore")
-                freq = pd.infer_freq(uniq)
-            freq = getattr(freq, "freqstr", freq)
-        except (TypeError, ValueError):
-            freq = None
-        if freq:
-            fp.time_regular = True
-            fp.time_step = freq
-            ev.append(f"{len(uniq)} time points, regular step {freq}")
-            return
-        steps = uniq.to_series().diff().dropna().dt.total_seconds().to_numpy() / 86400.0  # days
-        unit = "days"
-    step = float(np.median(steps))
-    if step <= 0:
-        return
-    tol = THRESHOLDS["uneven_tolerance"]
-    # Calendar months and years vary in length by a few percent; allow for that.
-    slack = 0.1 if unit == "days" and step >= 27 else tol
-    off = np.abs(steps - step) > slack * step
-    fp.time_gaps = int(np.sum(steps > (1 + max(slack, 0.5)) * step))
-    fp.time_regular = not bool(off.any())
-    fp.time_step = f"{step:g} {unit}"
-    if fp.time_regular:
-        ev.append(f"{len(uniq)} time points, regular step {fp.time_step}")
-    else:
-        ev.append(
-            f"{len(uniq)} time points, uneven spacing (usual step {fp.time_step}, "
-            f"{int(off.sum())} steps differ, {fp.time_gaps} gaps)"
-        )
