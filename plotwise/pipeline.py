@@ -105,7 +105,7 @@ def _overall_stat(designs: list[Design]) -> str:
 
 def advise_task(df, profile: Profile, task: str, req: Request, exact=None) -> TaskResult:
     """One task: roles → candidates → data facts → plan → score → hazards → headline."""
-    roles = choose_roles(profile, task, req.x, req.y, req.hue, df)
+    roles = choose_roles(profile, task, req.x, req.y, req.hue, df, inferred=req.task is None)
     designs = candidates(profile, task, roles, req.agg)
     if not designs:
         raise PlotwiseError(f"no design can show {task} for these columns.")

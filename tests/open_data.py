@@ -30,7 +30,7 @@ def kind_cases() -> list[tuple[pd.DataFrame, dict]]:
         (g[g.year >= 1950], dict(task="compare", x="firm", y="invest", hue="year")),
         (g, dict(task="trend", x="year", y="invest", hue="firm")),
         (g, dict(task="trend", x="year", y="invest")),
-        (two, dict(task="compare", y="invest")),
+        (two, dict(task="compare", x="firm", y="invest", hue="year")),
         (g, dict(task="proportion", x="firm", y="invest")),
         (g[g.year >= 1952], dict(task="proportion", x="firm", y="invest", hue="year")),
         (f, dict(task="correlate")),

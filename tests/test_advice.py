@@ -78,11 +78,16 @@ def test_correlate_picks_strongest_pair_and_says_why():
 def test_two_time_points_per_group():
     # Grunfeld investment in 1935 and 1954 only: a quantity over two time points per firm
     # ranks slope or difference-bar in the top three, for compare and for trend.
+    # The split must be asked for (hue): without it the question is the one stated, and the
+    # notes say how to ask for before/after designs (common practice: answer the question asked).
     g = grunfeld()
     two = g[g["year"].isin([1935.0, 1954.0])]
-    for task in ("compare", "trend"):
-        a = plotwise.advise(two, task, y="invest")
+    for task, x, hue in (("compare", "firm", "year"), ("trend", "year", "firm")):
+        a = plotwise.advise(two, task, x=x, y="invest", hue=hue)
         assert {"slope", "difference-bar"} & set(top(a)), (task, top(a))
+    plain = plotwise.advise(two, "compare", x="firm", y="invest")
+    assert not {"slope", "difference-bar"} & set(top(plain))
+    assert any("hue='year'" in n for n in plain.notes)
 
 
 def test_distribution_of_iris_petals():

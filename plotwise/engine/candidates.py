@@ -7,8 +7,9 @@ from dataclasses import replace
 
 from plotwise.engine.design import Design, DesignOptions, Roles
 from plotwise.engine.kinds import kind as kind_record
-from plotwise.engine.profile import Profile, has_hint
-from plotwise.engine.rules import SUM_NAME_HINTS, THRESHOLDS
+from plotwise.engine.meaning import is_non_additive
+from plotwise.engine.profile import Profile
+from plotwise.engine.rules import THRESHOLDS
 
 
 def _measure_stat(profile: Profile, x: str, y: str | None, task: str, agg: str | None) -> str:
@@ -16,16 +17,14 @@ def _measure_stat(profile: Profile, x: str, y: str | None, task: str, agg: str |
         return "count"
     if agg:
         return agg
-    if task == "proportion":
-        return "sum"
     m = profile.fields[y]
-    if m.minimum is not None and m.minimum >= 0 and m.maximum <= 1 and m.distinct <= 2:
+    if m.measure == "flag":
         return "mean"  # a 0/1 outcome: its mean is a rate
     if profile.rows <= profile.fields[x].distinct:
         return "value"  # one row per category: draw the value itself
-    if m.zero_meaningful and not m.share_like and has_hint(y, SUM_NAME_HINTS):
-        return "sum"
-    return "mean"
+    if task == "proportion":  # parts of a whole add up, unless the data say they cannot
+        return "mean" if is_non_additive(m) else "sum"
+    return "sum" if m.measure == "additive" else "mean"
 
 
 def _horizontal(profile: Profile, cat: str) -> bool:
@@ -164,7 +163,12 @@ def _trend(profile: Profile, r: Roles, agg) -> list[Design]:
 
 def _proportion(profile: Profile, r: Roles, agg) -> list[Design]:
     x, y, hue = r.x, r.y, r.hue
-    stat = "count" if y is None else "sum"
+    stat = _measure_stat(profile, x, y, "proportion", agg)
+    if stat not in ("count", "sum", "value"):
+        # Rates, percentages and averages do not add up to a whole: no shares, only the
+        # per-category values (the reasons say why).
+        return [d for d in _compare(profile, r, agg) if kind_record(d.kind).parts == "none"
+                and kind_record(d.kind).summarises]
     meas = y or "count"
     base = {"measure": meas, "category": x}
     horiz = _horizontal(profile, x)

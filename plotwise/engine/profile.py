@@ -12,6 +12,7 @@ import numpy as np
 import pandas as pd
 
 from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
+from plotwise.engine.meaning import classify_measure
 from plotwise.engine.timeaxis import looks_like_dates, time_spacing
 from plotwise.errors import PlotwiseError
 
@@ -52,6 +53,11 @@ class FieldProfile:
     position: int = 0  # column position in the frame
     as_text: bool = False  # values are mixed Python objects, compared as their text
     labels: tuple = ()  # every distinct value seen (in the profile's rows), when there are few
+    # What a numeric column means as a measure (plotwise.engine.meaning): additive,
+    # non-additive, unknown, identifier, flag or constant; None for other levels.
+    measure: str | None = None
+    measure_why: str = ""  # the evidence for ``measure``, in words
+    time_like: bool = False  # an ordered scale of time points (waves, years as text, months...)
 
     @property
     def usable(self) -> int:
@@ -308,7 +314,9 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
         fp.order = tuple(int(u) for u in uniq)
         ev.append(f"integer codes {int(uniq[0])}..{int(uniq[-1])} with many ties (a rating or rank)")
         return
+    fp.measure, fp.measure_why = classify_measure(fp, finite)
     ev.append(f"{fp.distinct} distinct numbers from {fp.minimum:.4g} to {fp.maximum:.4g}")
+    ev.append(f"{fp.measure} measure ({fp.measure_why})")
     if fp.is_discrete:
         ev.append(f"integers with only {fp.distinct} levels (discrete)")
     if has_hint(label, INTERVAL_NAME_HINTS):

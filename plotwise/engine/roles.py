@@ -5,8 +5,9 @@ its own chooser; ``choose_roles`` dispatches and checks the hue."""
 from __future__ import annotations
 
 from plotwise.engine.design import Roles
+from plotwise.engine.meaning import NOT_MEASURES
 from plotwise.engine.profile import FieldProfile, Profile
-from plotwise.engine.rules import THRESHOLDS
+from plotwise.engine.rules import FIT_LIMITS, THRESHOLDS
 from plotwise.errors import PlotwiseError
 
 
@@ -50,12 +51,11 @@ def _best_category(profile: Profile, exclude=()) -> FieldProfile | None:
 
 
 def _best_measure(profile: Profile, exclude=()) -> FieldProfile | None:
-    ms = [f for f in profile.fields.values() if f.label not in exclude and is_measure(f)]
-    if not ms:
-        return None
-    # Prefer a column that is not an identifier-like running integer.
-    good = [f for f in ms if not (f.is_integer and f.distinct == f.rows and f.rows > 20)]
-    return (good or ms)[0]
+    """The first numeric column that is a measure (never an identifier, a 0/1 flag or a
+    constant)."""
+    ms = [f for f in profile.fields.values() if f.label not in exclude and is_measure(f)
+          and f.measure not in NOT_MEASURES]
+    return ms[0] if ms else None
 
 
 def _two_point_column(profile: Profile, exclude=()) -> FieldProfile | None:
@@ -93,12 +93,15 @@ def _choose_measure(profile: Profile, r: Roles, given: set, per: str) -> None:
     without one, rows are counted per category or time point."""
     f = profile.fields
     if r.y is None:
-        m = _best_measure(profile, exclude=given | {r.x})
+        # Without a stated measure, rows are counted; only a series (one row per category or
+        # time point) has nothing to count, and then its first measure is shown.
+        series = profile.rows <= f[r.x].distinct + f[r.x].missing
+        m = _best_measure(profile, exclude=given | {r.x}) if series else None
         if m is not None:
             r.y = m.label
-            r.notes.append(f"measure: '{m.label}', the first numeric column")
+            r.notes.append(f"measure: '{m.label}', the first numeric measure (one row per {per})")
         else:
-            r.notes.append(f"no numeric column: counting rows per {per}")
+            r.notes.append(f"no y given: counting rows per {per} (name y=... to show a measure)")
     elif f[r.y].level != "quantitative":
         raise PlotwiseError(f"'{r.y}' is {f[r.y].level}; y must be a numeric measure. "
                             f"Leave y out to count rows per {per}.")
@@ -149,16 +152,18 @@ def _compare_roles(profile: Profile, r: Roles, task: str, given: set, df) -> Rol
     _category_x(profile, r, task, given)
     _choose_measure(profile, r, given, "category")
     if r.hue is None and task == "compare":
+        # The caller's columns define the question: a split nobody asked for is only mentioned.
         p = _two_point_column(profile, exclude=given | {r.x, r.y})
         if p is not None and f[r.x].level == "nominal":
-            r.period = p.label
-            r.notes.append(f"two time points in '{p.label}': before/after designs considered")
+            r.notes.append(f"'{p.label}' holds two time points: add hue='{p.label}' for "
+                           "before/after designs (slope, difference)")
     elif r.hue is not None and _is_period(f[r.hue]):
         r.period = r.hue
     return _checked_hue(profile, r)
 
 
-def _trend_roles(profile: Profile, r: Roles, task: str, given: set, df) -> Roles:
+def _trend_roles(profile: Profile, r: Roles, task: str, given: set, df,
+                 inferred: bool = False) -> Roles:
     f = profile.fields
     if r.x is None:
         t = _first(profile, is_time, exclude=given) or _first(
@@ -171,15 +176,30 @@ def _trend_roles(profile: Profile, r: Roles, task: str, given: set, df) -> Roles
             )
         r.x = t.label
         r.notes.append(f"time: '{t.label}' ({f[t.label].distinct} time points)")
+    _check_time_axis(f[r.x], inferred)
     _choose_measure(profile, r, given, "time point")
+    if inferred and r.y is None and f[r.x].distinct < FIT_LIMITS["inferred_count_trend_points"]:
+        raise PlotwiseError(f"'{r.x}' has only {f[r.x].distinct} time points; counting rows "
+                            "over so few is a comparison, not a trend.")
     if r.hue is None and f[r.x].distinct == 2:
         g = _best_category(profile, exclude=given | {r.x, r.y})
         if g is not None:
-            r.hue = g.label
-            r.notes.append(f"two time points: groups from '{g.label}' for before/after designs")
+            r.notes.append(f"two time points: add hue='{g.label}' for before/after designs")
     if f[r.x].distinct == 2 and r.hue is not None:
         r.period = r.x
     return _checked_hue(profile, r)
+
+
+def _check_time_axis(f: FieldProfile, inferred: bool) -> None:
+    """A trend needs time on x: dates or years, or an ordered scale of time points (waves,
+    months, before/after). When the task is stated, the caller's category is accepted (an
+    unordered one then gets the line-over-categories hazard); a quantity never is."""
+    if f.level == "temporal" or f.time_like or (
+            f.level in ("ordinal", "nominal") and not inferred):
+        return
+    raise PlotwiseError(
+        f"'{f.label}' is {f.level}, not time; a trend needs dates, years or an ordered column of "
+        "time points on x. For two quantities use task='correlate'; for categories 'compare'.")
 
 
 def _pick_pair(profile: Profile, r: Roles, pool: list[FieldProfile], need: int, df) -> None:
@@ -250,12 +270,15 @@ CHOOSERS = {"compare": _compare_roles, "proportion": _compare_roles, "trend": _t
             "correlate": _correlate_roles, "distribution": _distribution_roles}
 
 
-def choose_roles(profile: Profile, task: str, x, y, hue, df=None) -> Roles:
+def choose_roles(profile: Profile, task: str, x, y, hue, df=None, inferred: bool = False) -> Roles:
     """The columns for ``task``: the caller's (checked) and, where left out, plotwise's choice
-    with a note saying why."""
+    with a note saying why. ``inferred``: no task was stated (plotwise ranks across tasks)."""
     x, y, hue = check_roles(profile, x, y, hue)
     given = {c for c in (x, y, hue) if c}
-    return CHOOSERS[task](profile, Roles(x=x, y=y, hue=hue), task, given, df)
+    r = Roles(x=x, y=y, hue=hue)
+    if task == "trend":
+        return _trend_roles(profile, r, task, given, df, inferred)
+    return CHOOSERS[task](profile, r, task, given, df)
 
 
 def _checked_hue(profile: Profile, r: Roles) -> Roles:

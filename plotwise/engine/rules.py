@@ -101,6 +101,8 @@ FIT_LIMITS = {
     "dense_grid_bars": 60,  # grouped bars beyond this many are a dense grid
     "small_heatmap_cells": 9,  # fewer cells than this: plain bars read better
     "line_min_points": 3,  # a line needs this many time points to show a trend
+    # With no task stated, counting rows over fewer time points than this is left to compare.
+    "inferred_count_trend_points": 8,
     "hexbin_min_points": 500,  # fewer points than this: draw each one
     "weak_r": 0.2,  # |Pearson r| below this: a fitted line suggests a relation barely there
     "box_min_points": 5,  # quartiles of fewer points are unstable
@@ -261,6 +263,25 @@ INTERVAL_NAME_HINTS = ("temp", "celsius", "fahrenheit", "latitude", "longitude",
 SUM_NAME_HINTS = ("revenue", "sales", "count", "amount", "cost", "total", "quantity", "units",
                   "volume", "passengers", "visits", "orders", "spend", "income", "profit", "trips",
                   "tickets", "n", "num", "number", "admitted", "applicants")
+# Name fragments of measures that describe each item, so that their totals mostly count the
+# items (rates, ratios, averages, scores, sizes and other per-item quantities): averaged, never
+# summed into shares of a whole (common practice).
+NON_ADDITIVE_NAME_HINTS = ("rate", "ratio", "avg", "average", "mean", "median", "per", "score",
+                           "index", "age", "expectancy", "life", "mpg", "gallon", "speed",
+                           "density", "price", "length", "width", "depth", "height", "weight",
+                           "mass", "bmi", "sleep", "grade", "rating", "pct", "percent", "share",
+                           "fraction", "proportion", "horsepower", "acceleration", "displacement",
+                           "wind", "pressure", "humidity", "temp", "latitude", "longitude",
+                           "elevation", "altitude", "lat", "lon", "mm", "cm", "kg")
+# Name fragments of measures whose totals make sense beyond the SUM_NAME_HINTS above
+# (common practice).
+ADDITIVE_NAME_HINTS = SUM_NAME_HINTS + (
+    "population", "pop", "deaths", "cases", "births", "precipitation", "rainfall", "emissions",
+    "invest", "investment", "capital", "sold", "crimes", "arrests", "employment", "employed",
+    "net_generation", "generation", "kwh", "mwh", "gwh", "budget", "expenditure", "hours_worked")
+# Name fragments of row identifiers and codes: never a measure (common practice).
+IDENTIFIER_NAME_HINTS = ("id", "key", "code", "zip", "zipcode", "fips", "uuid", "index_",
+                         "serial", "row", "record")
 # Name fragments that mark a column of percentages or shares (common practice).
 SHARE_NAME_HINTS = ("pct", "percent", "share", "%", "proportion", "fraction")
 # Name fragments that mark a year stored as an integer (common practice).

@@ -173,10 +173,10 @@ def test_headlines_exact():
         "'c' has the highest 'sales' (600), 6.0× that of 'b', the lowest (100)."
     two = pd.DataFrame({"team": ["a", "a", "b", "b"], "year": [2023, 2024, 2023, 2024],
                         "sales": [100.0, 150.0, 200.0, 190.0]})
-    assert plotwise.advise(two, "compare", x="team", y="sales").headline == \
+    assert plotwise.advise(two, "compare", x="team", y="sales", hue="year").headline == \
         "'a' changed most: 'sales' went from 100 to 150 between 2023 and 2024 (+50, +50.0%)."
     pts = two.rename(columns={"sales": "share_pct"}).assign(share_pct=[30.0, 33.2, 50.0, 49.0])
-    assert plotwise.advise(pts, "compare", x="team", y="share_pct").headline == (
+    assert plotwise.advise(pts, "compare", x="team", y="share_pct", hue="year").headline == (
         "'a' changed most: 'share_pct' went from 30.0% to 33.2% between 2023 and 2024 "
         "(+3.2 percentage points).")
 

@@ -85,12 +85,16 @@ def test_not_a_whole():
 def test_line_over_categories():
     df = pd.DataFrame({"stage": ["draft", "review", "final"] * 4, "hours": np.arange(12.0)})
     ordered = df.assign(stage=pd.Categorical(df["stage"], ["draft", "review", "final"], ordered=True))
-    bad = plotwise.advise(df, "trend", x="stage")
+    bad = plotwise.advise(df, "trend", x="stage", y="hours")
     assert "line-over-categories" in codes(bad)
     assert not bad.design("line").expressive
-    good = plotwise.advise(ordered, "trend", x="stage")
+    good = plotwise.advise(ordered, "trend", x="stage", y="hours")
     assert "line-over-categories" not in codes(good)
     assert good.design("line").expressive
+    # A quantity is never a time axis; with no task stated, unordered labels get no trend.
+    with pytest.raises(plotwise.PlotwiseError, match="not time"):
+        plotwise.advise(df, "trend", x="hours")
+    assert "trend" not in {d.task for d in plotwise.advise(df, x="stage", y="hours").designs}
 
 
 def test_overplotting():
@@ -130,8 +134,8 @@ def test_hidden_spread():
     g = np.repeat(["A", "B", "C"], n)
     overlap = pd.DataFrame({"g": g, "score": rng.normal(50, 10, 3 * n) + np.repeat([0, 2, 3], n)})
     apart = pd.DataFrame({"g": g, "score": rng.normal(50, 10, 3 * n) + np.repeat([0, 20, 40], n)})
-    assert "hidden-spread" in codes(plotwise.advise(overlap, "compare"), "bar")
-    assert "hidden-spread" not in codes(plotwise.advise(apart, "compare"), "bar")
+    assert "hidden-spread" in codes(plotwise.advise(overlap, "compare", y="score"), "bar")
+    assert "hidden-spread" not in codes(plotwise.advise(apart, "compare", y="score"), "bar")
 
 
 def test_few_points():
@@ -146,10 +150,10 @@ def test_missing_values():
     df = pd.DataFrame({"shop": list("ABCDEFGHIJ") * 2, "sales": np.arange(20.0)})
     holes = df.copy()
     holes.loc[[1, 5, 9], "sales"] = np.nan
-    a = plotwise.advise(holes, "compare")
+    a = plotwise.advise(holes, "compare", y="sales")
     h = [h for h in a.hazards if h.code == "missing-values"]
     assert h and "3 of 20 rows" in h[0].message and h[0].severity == "warn"
-    assert "missing-values" not in codes(plotwise.advise(df, "compare"))
+    assert "missing-values" not in codes(plotwise.advise(df, "compare", y="sales"))
 
 
 def test_every_registered_code_is_documented():
