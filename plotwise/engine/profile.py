@@ -11,8 +11,8 @@ from typing import TYPE_CHECKING
 import numpy as np
 import pandas as pd
 
-from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
 from plotwise.engine.meaning import classify_measure
+from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
 from plotwise.engine.timeaxis import looks_like_dates, time_spacing
 from plotwise.errors import PlotwiseError
 
