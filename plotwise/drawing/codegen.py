@@ -20,7 +20,7 @@ from plotwise.drawing.snippet import (
 )
 from plotwise.engine.design import CODE_WRITERS, Design
 from plotwise.engine.kinds import KINDS, engine_mode
-from plotwise.engine.profile import Profile
+from plotwise.engine.profile import Profile, few_integers
 
 _missing = sorted(set(KINDS) - set(GENERATORS))
 if _missing:  # a kind in the registry without a generator would fail only when drawn
@@ -67,6 +67,17 @@ def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
             f"d = pd.DataFrame({{{picked}}}, copy=False){drop}"]
 
 
+def group_lines(design: Design, profile: Profile) -> list[str]:
+    """A few whole numbers that name groups (x of a comparison, a hue, a facet) become whole
+    numbers again, so they are labelled 4, not 4.0."""
+    named = [design.hue, design.facet] + ([design.x] if design.task in ("compare", "proportion")
+                                          else [])
+    return [f'd[{col!r}] = d[{col!r}].round().astype("Int64")'
+            for col in dict.fromkeys(c for c in named if c)
+            if col in profile.fields and few_integers(profile.fields[col])
+            and col in design.columns]
+
+
 def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     """Build ``d``: the used columns under their labels, converted, missing rows dropped."""
     if profile.source is not None:
@@ -74,7 +85,7 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
         for col in design.options.log_columns:
             if engine_mode(design) == "rows":
                 lines.append(f"d = d[d[{col!r}] > 0]")
-        return lines
+        return lines + group_lines(design, profile)
     items = ", ".join(f"{label!r}: {column_expr(profile.fields[label], frame)}"
                       for label in design.columns)
     # A correlation matrix uses every pairwise-complete row; other designs drop incomplete rows.
@@ -88,7 +99,7 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
         lines += [f"if len(d) > {big}:  # draw a seeded random sample of the rows",
                   "    d = d.iloc[np.sort(np.random.default_rng(0).choice(len(d), "
                   f"size={k}, replace=False))]"]
-    return lines
+    return lines + group_lines(design, profile)
 
 
 def note_lines(design: Design, ax: str = "ax") -> list[str]:

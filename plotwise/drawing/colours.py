@@ -6,6 +6,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from plotwise.engine.colour import ordered_palette
 from plotwise.engine.design import Design
 from plotwise.engine.rules import DIVERGING_CMAP, OKABE_ITO, SEQUENTIAL_CMAP
 from plotwise.errors import PlotwiseError
@@ -54,6 +55,11 @@ def drawn_colours(d: Design, n: int) -> list[str]:
     pal = d.options.palette
     if pal:
         return [pal[i % len(pal)] for i in range(n)]
+    named = ordered_palette(d.profile.fields.get(d.encoding.get("hue") or "")) if d.profile else None
+    if named:
+        import seaborn as sns
+
+        return [to_hex_list([c])[0] for c in sns.color_palette(named, n)]
     if n <= len(OKABE_ITO):
         return list(OKABE_ITO[:n])
     import seaborn as sns

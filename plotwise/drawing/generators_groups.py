@@ -40,7 +40,7 @@ def _dot(c: Ctx) -> list[str]:
                  f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)",
                  f"order = v.groupby({d.x!r})[{vn!r}].sum().sort_values(ascending=False).index"
                  if c.nominal(d.x) else f"order = v[{d.x!r}].unique()",
-                 f"hues = sorted(v[{d.hue!r}].unique())",
+                 f"hues = {c.levels(d.hue, 'v')}",
                  f"sns.stripplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=list(order), "
                  f"hue_order=hues, palette={c.palette(c.f(d.hue).distinct, 'len(hues)')}, jitter=False, "
                  f"size=7, ax={c.ax})"]
@@ -90,7 +90,7 @@ def _time_dots(c: Ctx) -> list[str]:
     hue = ""
     if d.hue:
         lines.append(f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)")
-        hue = (f", hue={d.hue!r}, hue_order=sorted(v[{d.hue!r}].unique()), "
+        hue = (f", hue={d.hue!r}, hue_order={c.levels(d.hue, 'v')}, "
                f"palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}")
     size = "s=12" if (f is not None and f.distinct > 60) else "s=30"
     lines.append(f"sns.scatterplot(data=v, x={d.x!r}, y={vn!r}{hue}, {size}, linewidth=0, "
@@ -111,7 +111,7 @@ def _grouped_bar(c: Ctx) -> list[str]:
         lines.append(f"order = list(v.groupby({d.x!r})[{vn!r}].sum().sort_values(ascending=False).index)")
     else:
         lines.append(f"order = list(dict.fromkeys(v[{d.x!r}]))")
-    lines.append(f"hues = list(dict.fromkeys(v[{d.hue!r}]))")
+    lines.append(f"hues = {c.levels(d.hue, 'v')}")  # the same order in every panel
     pal = c.palette(c.f(d.hue).distinct, "len(hues)")
     if d.horizontal:
         lines.append(f'sns.barplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=order, '
@@ -134,12 +134,14 @@ def _stacked(c: Ctx, percent: bool) -> list[str]:
         bars, parts = d.x, d.hue
     lines = []
     if bars is None:  # one bar of the whole
-        lines += [f"v = {c.grouped([parts])}.sort_values(ascending=False)",
+        lines += [f"v = {c.grouped([parts])}" + ("" if c.ordered(parts)
+                                                 else ".sort_values(ascending=False)"),
                   "t = (v / v.sum() * 100).to_frame().T" if percent else "t = v.to_frame().T",
                   't.index = [""]']
     else:
-        lines += [f"t = {c.grouped([bars, parts])}.unstack({parts!r}, fill_value=0)",
-                  "t = t[t.sum().sort_values(ascending=False).index]"]
+        lines += [f"t = {c.grouped([bars, parts])}.unstack({parts!r}, fill_value=0)"]
+        if not c.ordered(parts):  # an ordered scale keeps its order; labels go largest first
+            lines.append("t = t[t.sum().sort_values(ascending=False).index]")
         if c.nominal(bars):
             lines.append("t = t.loc[t.sum(axis=1).sort_values(ascending=False).index]")
         if percent:
@@ -183,7 +185,7 @@ def _line(c: Ctx, area: bool = False) -> list[str]:
         reset = f".reset_index(name={vn!r})" if (d.y is None or d.stat == "count") else ".reset_index()"
         return [f"v = {c.grouped([d.x, d.hue])}{reset}",
                 f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)",
-                f"hues = sorted(v[{d.hue!r}].unique())",
+                f"hues = {c.levels(d.hue, 'v')}",
                 f"sns.lineplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, hue_order=hues, "
                 f"palette={c.palette(c.f(d.hue).distinct, 'len(hues)')}, errorbar=None, ax={c.ax})",
                 _legend(c),
@@ -296,7 +298,7 @@ def _scatter(c: Ctx) -> list[str]:
     hue = ""
     if d.hue:
         hue = (f", hue={c.data}[{d.hue!r}].astype(str), "
-               f"hue_order=sorted({c.data}[{d.hue!r}].astype(str).unique()), "
+               f"hue_order={c.levels(d.hue, c.data, text=True)}, "
                f"palette={c.palette(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
     lines = [f"alpha = 1.0 if len({c.data}) <= 300 else max(0.15, (300 / len({c.data})) ** 0.5)",
              f"sns.scatterplot(x={c.data}[{d.x!r}], y={c.data}[{d.y!r}]{hue}, s=36, alpha=alpha, "

@@ -27,7 +27,7 @@ def _hue_args(c: Ctx) -> str:
     d = c.d
     if not d.hue:
         return f", color={MAIN_COLOUR!r}"
-    return (f", hue={d.hue!r}, hue_order=sorted({c.data}[{d.hue!r}].unique(), key=str), "
+    return (f", hue={d.hue!r}, hue_order={c.levels(d.hue, c.data, ', key=str')}, "
             f"palette={c.palette(c.f(d.hue).distinct, f'{c.data}[{d.hue!r}].nunique()')}")
 
 
@@ -124,7 +124,8 @@ def _boxlike(c: Ctx, kind: str) -> list[str]:
         lines.append(f"order = list({c.data}.groupby({group!r}, observed=True)[{var!r}].median()"
                      ".sort_values(ascending=False).index.astype(str))")
     else:
-        lines.append("order = sorted(g.unique())")
+        lines.append(f"order = {c.levels(group, 'g.to_frame()')}" if c.ordered(group)
+                     else "order = sorted(g.unique())")
     colour = f"color={MAIN_COLOUR!r}"
     if d.horizontal:
         lines.append(f"sns.{func}(x={data}[{var!r}], y=g, order=order, orient=\"h\", "
@@ -150,7 +151,7 @@ def _count_bar(c: Ctx) -> list[str]:
                 else f"order = list({c.grouped([d.x])}.sort_values(ascending=False, kind=\"stable\").index)",
                 f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
                 f"sns.barplot(data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, order=[str(o) for o in order], "
-                f"hue_order=sorted(v[{d.hue!r}].unique()), "
+                f"hue_order={c.levels(d.hue, 'v')}, "
                 f"palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
                 f"errorbar=None, ax={c.ax})",
                 ] + _labels(c, d.x, "number of rows") + _style(c, "y")

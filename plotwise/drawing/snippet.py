@@ -6,6 +6,7 @@ from __future__ import annotations
 
 from collections.abc import Callable
 
+from plotwise.engine.colour import ordered_palette
 from plotwise.engine.design import Design
 from plotwise.engine.kinds import engine_mode
 from plotwise.engine.profile import FieldProfile, Profile
@@ -60,7 +61,27 @@ class Ctx:
                        and engine_mode(design) == "groups" else None)
 
     def palette(self, n_hint: int, count: str | None = None) -> str:
+        """Colours for the column on the hue channel: the caller's, an ordered palette for an
+        ordered scale, else Okabe & Ito."""
+        named = ordered_palette(self.f(self.d.encoding.get("hue") or ""))
+        if named and not self.d.options.palette:
+            return f"sns.color_palette({named!r}, {count or n_hint})"
         return palette_expr(n_hint, count, self.d.options.palette)
+
+    def levels(self, label, frame: str, key: str = "", text: bool = False) -> str:
+        """Code for the levels of ``label`` present in ``frame``, in the column's own order
+        (as text) when it has one (an ordered scale), else sorted (as text with ``text``)."""
+        f = self.f(label)
+        if f is not None and f.level == "ordinal" and f.order:
+            order = [str(o) for o in f.order]
+            return f"[k for k in {order!r} if k in set({frame}[{label!r}].astype(str))]"
+        col = f"{frame}[{label!r}]" + (".astype(str)" if text else "")
+        return f"sorted({col}.unique(){key})"
+
+    def ordered(self, label) -> bool:
+        """The column has an order of its own (segments and legends keep it)."""
+        f = self.f(label)
+        return f is not None and f.level == "ordinal" and bool(f.order)
 
     def cmap(self, default: str = SEQUENTIAL_CMAP) -> str:
         return repr(self.d.options.cmap or default)
@@ -149,7 +170,7 @@ def _ordered_series(c: Ctx, cat: str, ascending: bool = False) -> list[str]:
         lines.append(f"v = v.sort_values(ascending={ascending})")
     if c.d.options.share:
         lines.append("v = v / v.sum() * 100")
-    lines.append("labels = v.index.astype(str)")
+    lines.append("labels = [f\"{k:g}\" if isinstance(k, float) else str(k) for k in v.index]")
     return lines
 
 

@@ -12,7 +12,15 @@ from functools import lru_cache
 
 import numpy as np
 
-from plotwise.engine.rules import DIVERGING_CMAP, OKABE_ITO, SEQUENTIAL_CMAP, THRESHOLDS
+from plotwise.engine.profile import few_integers
+from plotwise.engine.rules import (
+    DIVERGING_CMAP,
+    DIVERGING_PALETTE,
+    OKABE_ITO,
+    ORDERED_PALETTE,
+    SEQUENTIAL_CMAP,
+    THRESHOLDS,
+)
 from plotwise.errors import PlotwiseError
 
 CVD_TYPES = {"protanomaly": "protan (red-weak)", "deuteranomaly": "deutan (green-weak)",
@@ -130,3 +138,13 @@ def scheme_for(level: str, signed: bool = False, n_levels: int = 0) -> tuple[str
 
 def default_palette(n: int) -> list[str]:
     return list(OKABE_ITO[:n])
+
+
+def ordered_palette(f) -> str | None:
+    """The palette name for colouring the levels of ``f`` (a FieldProfile): sequential for an
+    ordered scale, diverging for one with a neutral middle; None for unordered labels."""
+    if f is not None and few_integers(f):
+        return ORDERED_PALETTE
+    if f is None or f.level != "ordinal" or not f.order:
+        return None
+    return DIVERGING_PALETTE if f.neutral_middle else ORDERED_PALETTE

@@ -18,6 +18,13 @@ def fmt(v: float) -> str:
     return f"{v:.3g}"
 
 
+def label(k) -> str:
+    """A category as the reader knows it: whole numbers stored as floats without '.0'."""
+    if isinstance(k, float) and k.is_integer():
+        return f"{k:.0f}"
+    return str(k)
+
+
 def pct(v: float) -> str:
     return f"{v:.1f}%"
 
@@ -28,7 +35,7 @@ def proportion_headline(vals: pd.Series, y: str | None, share_like: bool) -> str
     total = float(vals.sum())
     if total <= 0:
         return None
-    top = vals.idxmax()
+    top = label(vals.idxmax())
     share = float(vals.max()) / total * 100
     what = f"'{y}'" if y else "rows"
     if share_like and abs(total - 100) <= 0.5 * len(vals):
@@ -40,9 +47,11 @@ def proportion_headline(vals: pd.Series, y: str | None, share_like: bool) -> str
 def compare_headline(vals: pd.Series, y: str | None, stat_word: str) -> str | None:
     if len(vals) < 2:
         return None
-    hi, lo = vals.idxmax(), vals.idxmin()
+    hi, lo = label(vals.idxmax()), label(vals.idxmin())
     vhi, vlo = float(vals.max()), float(vals.min())
     what = f"{stat_word} '{y}'".strip() if y else "number of rows"
+    if vhi == vlo:
+        return f"All {len(vals)} groups have the same {what} ({fmt(vhi)})."
     if vlo > 0:
         return (f"'{hi}' has the highest {what} ({fmt(vhi)}), {vhi / vlo:.1f}× that of '{lo}', "
                 f"the lowest ({fmt(vlo)}).")
@@ -55,10 +64,11 @@ def change_headline(w: pd.DataFrame, group: str, period: str, y: str, stat: str,
     t = aggregate(w, [group, period], y, stat).unstack(period).dropna()
     if t.shape[1] != 2 or len(t) == 0:
         return None
-    first, second = t.columns
-    change = t[second] - t[first]
-    g = change.abs().idxmax()
-    a, b, c = float(t.loc[g, first]), float(t.loc[g, second]), float(change[g])
+    c1, c2 = t.columns
+    change = t[c2] - t[c1]
+    key = change.abs().idxmax()
+    a, b, c = float(t.loc[key, c1]), float(t.loc[key, c2]), float(change[key])
+    g, first, second = label(key), label(c1), label(c2)
     if share_like:
         return (f"'{g}' changed most: '{y}' went from {pct(a)} to {pct(b)} between {first} and "
                 f"{second} ({c:+.1f} percentage points).")

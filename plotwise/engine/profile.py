@@ -11,8 +11,9 @@ from typing import TYPE_CHECKING
 import numpy as np
 import pandas as pd
 
-from plotwise.engine.meaning import classify_measure
+from plotwise.engine.meaning import classify_measure, name_says
 from plotwise.engine.rules import INTERVAL_NAME_HINTS, SHARE_NAME_HINTS, THRESHOLDS, YEAR_NAME_HINTS
+from plotwise.engine.scales import MAX_NUMBER_TEXT_LEVELS, WAVE_NAME_HINTS, text_order
 from plotwise.engine.timeaxis import looks_like_dates, time_spacing
 from plotwise.errors import PlotwiseError
 
@@ -58,6 +59,7 @@ class FieldProfile:
     measure: str | None = None
     measure_why: str = ""  # the evidence for ``measure``, in words
     time_like: bool = False  # an ordered scale of time points (waves, years as text, months...)
+    neutral_middle: bool = False  # an ordered scale with a neutral midpoint (diverging colours)
 
     @property
     def usable(self) -> int:
@@ -83,6 +85,13 @@ class Profile:
 
     def of_level(self, *levels: str) -> list[FieldProfile]:
         return [f for f in self.fields.values() if f.level in levels]
+
+
+def few_integers(f: FieldProfile) -> bool:
+    """A numeric column of a few whole numbers (cylinders 4/6/8, a wave 1/2): drawn with whole
+    labels, and usable as ordered categories when the caller names it as x or hue."""
+    return (f.level == "quantitative" and f.is_integer
+            and 2 <= f.distinct <= THRESHOLDS["few_integer_levels"])
 
 
 def check_frame(df) -> None:
@@ -206,6 +215,9 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
             fp.level = "ordinal"
             fp.order = tuple(dtype.categories)
             ev.append("ordered Categorical")
+            scale = text_order(tuple(str(c) for c in dtype.categories))
+            fp.time_like = bool(scale and scale.time)
+            fp.neutral_middle = bool(scale and scale.neutral_middle)
         else:
             fp.level = "nominal"
             ev.append("unordered Categorical")
@@ -257,6 +269,15 @@ def _text(fp: FieldProfile, s: pd.Series) -> None:
         ev.append("text that parses as dates")
         time_spacing(fp, pd.to_datetime(s, errors="coerce", format="ISO8601"))
         return
+    order = text_order(fp.labels)
+    if order is not None:
+        fp.level = "ordinal"
+        fp.order = order.labels
+        fp.time_like = order.time
+        fp.neutral_middle = order.neutral_middle
+        ev.append(f"labels of an ordered scale ({order.scale}): "
+                  + " < ".join(map(str, order.labels[:8])))
+        return
     fp.level = "nominal"
     ev.append(f"{fp.distinct} distinct labels")
     if fp.distinct > THRESHOLDS["max_categories"]:
@@ -303,10 +324,18 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
         ev.append(f"integer years {int(fp.minimum)}..{int(fp.maximum)} (name says year)")
         time_spacing(fp, pd.Series(np.unique(finite)))
         return
+    uniq = np.unique(finite)
+    # A few integer waves, rounds or visits: time points in their numeric order.
+    if (fp.is_integer and 2 <= len(uniq) <= MAX_NUMBER_TEXT_LEVELS
+            and name_says(label, WAVE_NAME_HINTS)):
+        fp.level = "ordinal"
+        fp.time_like = True
+        fp.order = tuple(int(u) for u in uniq)
+        ev.append(f"{len(uniq)} integer time points (name says {name_says(label, WAVE_NAME_HINTS)!r})")
+        return
     # Small integer codes 1..k: a rating or rank, read as ordinal. (Codes from 0 are more often
     # counts - children, defects - and stay quantitative.)
     k = THRESHOLDS["ordinal_code_levels"]
-    uniq = np.unique(finite)
     if (fp.is_integer and 3 <= len(uniq) <= k and uniq[0] == 1
             and np.array_equal(uniq, np.arange(uniq[0], uniq[0] + len(uniq)))
             and fp.rows >= 3 * len(uniq)):

@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from plotwise.engine.design import Roles
 from plotwise.engine.meaning import NOT_MEASURES
-from plotwise.engine.profile import FieldProfile, Profile
+from plotwise.engine.profile import FieldProfile, Profile, few_integers
 from plotwise.engine.rules import FIT_LIMITS, THRESHOLDS
 from plotwise.errors import PlotwiseError
 
@@ -136,7 +136,7 @@ def _category_x(profile: Profile, r: Roles, task: str, given: set) -> None:
         r.x = c.label
         r.notes.append(f"categories: '{c.label}' ({c.distinct} values), the first column with "
                        "a readable number of categories")
-    elif not (is_category(f[r.x]) or is_time(f[r.x])):
+    elif not (is_category(f[r.x]) or is_time(f[r.x]) or few_integers(f[r.x])):
         raise PlotwiseError(
             f"'{r.x}' is {f[r.x].level} with {f[r.x].distinct} distinct values; {task} needs "
             "a category with 2 to 60 values on x. Bin it first (pandas.cut) or pick another column."
@@ -284,7 +284,7 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None, inferred: bool
 def _checked_hue(profile: Profile, r: Roles) -> Roles:
     if r.hue is not None:
         h = profile.fields[r.hue]
-        if not (is_category(h) or is_time(h)):
+        if not (is_category(h) or is_time(h) or few_integers(h)):
             raise PlotwiseError(
                 f"hue '{r.hue}' has {h.distinct} distinct {h.level} values; hue needs a category "
                 "with 2 to 60 values. Bin it first (pandas.cut) or leave hue out."

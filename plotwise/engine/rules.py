@@ -165,6 +165,9 @@ THRESHOLDS: dict[str, Any] = {
     "discrete_levels": 15,
     # Integer codes 1..k with k at most this are read as ordinal codes (common practice).
     "ordinal_code_levels": 7,
+    # A numeric column of at most this many whole numbers can be a category when named as x or
+    # hue (cylinders 4/6/8); common practice.
+    "few_integer_levels": 12,
     # Strings with at most this many distinct values are categories (common practice).
     "max_categories": 60,
     # Category labels longer than this turn bars horizontal (common practice).
@@ -248,6 +251,10 @@ OKABE_ITO = ("#0072B2", "#E69F00", "#009E73", "#D55E00", "#CC79A7", "#56B4E9", "
 # cividis and the diverging "vlag" of seaborn, whose ends are equally light - from memory).
 SEQUENTIAL_CMAP = "viridis"
 DIVERGING_CMAP = "vlag"
+# Colours for the levels of an ordered scale: a sequential palette whose lightness rises with the
+# order, or a diverging one when the scale has a neutral middle (Brewer 1994; seaborn's names).
+ORDERED_PALETTE = "crest"
+DIVERGING_PALETTE = "coolwarm"
 # A single-series colour and the grey for context.
 MAIN_COLOUR = OKABE_ITO[0]
 CONTEXT_GREY = "#9A9A9A"
