@@ -15,12 +15,14 @@ from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 
 from plotwise.drawing.codegen import body_lines, short
+from plotwise.engine.conditions import drawn_labels
 from plotwise.engine.design import Design
 from plotwise.engine.profile import Profile
-from plotwise.engine.rules import PANEL_DPI, PANEL_SIZE_IN
+from plotwise.engine.rules import LABEL_HEIGHT_IN, PANEL_DPI, PANEL_SIZE_IN
 from plotwise.errors import PlotwiseError
 
 PANEL_WIDTH_IN, PANEL_HEIGHT_IN = PANEL_SIZE_IN  # one panel geometry: drawing and overplotting
+PANEL_MARGIN_IN = 1.6  # titles, axis label and ticks around stacked labels
 
 
 @contextmanager
@@ -61,6 +63,13 @@ def draw(design: Design, df, ax: Axes, profile: Profile | None = None) -> Axes:
     return ax
 
 
+def panel_height(designs: list[Design]) -> float:
+    """The panel height: the standard one, or taller when a design stacks many category labels
+    on its axis (each needs LABEL_HEIGHT_IN)."""
+    rows = max((drawn_labels(d, d.profile) for d in designs if d.profile is not None), default=0)
+    return max(PANEL_HEIGHT_IN, LABEL_HEIGHT_IN * rows + PANEL_MARGIN_IN)
+
+
 def panel_title(rank: int, design: Design) -> str:
     return f"{rank} · {short(design.title, 48)} · score {design.score:.2f}"
 
@@ -72,7 +81,8 @@ def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = 
         raise PlotwiseError("there are no designs to draw.")
     ranks = ranks or list(range(1, len(designs) + 1))
     with plot_style():
-        fig = Figure(figsize=(PANEL_WIDTH_IN * len(designs), PANEL_HEIGHT_IN), layout="constrained")
+        fig = Figure(figsize=(PANEL_WIDTH_IN * len(designs), panel_height(designs)),
+                     layout="constrained")
         subs = fig.subfigures(1, len(designs), wspace=0.02, squeeze=False)[0]
         for i, (sub, design) in enumerate(zip(subs, designs)):
             ax = sub.subplots()

@@ -7,6 +7,7 @@ from __future__ import annotations
 from collections.abc import Callable
 
 from plotwise.engine.colour import ordered_palette
+from plotwise.engine.conditions import kept_categories
 from plotwise.engine.design import Design
 from plotwise.engine.kinds import engine_mode
 from plotwise.engine.profile import FieldProfile, Profile
@@ -156,10 +157,19 @@ def _legend(c: Ctx) -> str:
 def _labels(c: Ctx, xlabel: str | None, ylabel: str | None, xnote: str = "") -> list[str]:
     """Axis labels, each cut to one short line; ``xnote`` goes on a second line under x."""
     out = []
+    kept = kept_categories(c.d, c.p)
+    if kept:  # say which categories the axis shows
+        f = c.f(c.d.x)
+        rest = "the rest as one" if c.d.stat in ("count", "sum") else "the rest not shown"
+        note = f"\n(largest {kept} of {f.distinct}; {rest})"
+        xnote = note if xlabel == c.d.x else xnote
+        ynote = note if ylabel == c.d.x else ""
+    else:
+        ynote = ""
     if xlabel is not None:
         out.append(f"{c.ax}.set_xlabel({short(xlabel) + xnote!r})")
     if ylabel is not None:
-        out.append(f"{c.ax}.set_ylabel({short(ylabel)!r})")
+        out.append(f"{c.ax}.set_ylabel({short(ylabel) + ynote!r})")
     return out
 
 
@@ -168,10 +178,22 @@ def _ordered_series(c: Ctx, cat: str, ascending: bool = False) -> list[str]:
     lines = [f"v = {c.grouped([cat])}"]
     if c.nominal(cat):
         lines.append(f"v = v.sort_values(ascending={ascending})")
+    kept = kept_categories(c.d, c.p)
+    if kept:
+        lines += _capped(c, kept)
     if c.d.options.share:
         lines.append("v = v / v.sum() * 100")
     lines.append("labels = [f\"{k:g}\" if isinstance(k, float) else str(k) for k in v.index]")
     return lines
+
+
+def _capped(c: Ctx, kept: int) -> list[str]:
+    """Keep the ``kept`` largest categories of ``v``; counts and sums of the rest become one
+    "all other" bar, averages of the rest are left out (and the axis label says so)."""
+    if c.d.stat in ("count", "sum"):
+        return [f"v = pd.concat([v.iloc[:{kept}], pd.Series({{f\"all other ({{len(v) - {kept}}})\": "
+                f"v.iloc[{kept}:].sum()}})])  # the largest {kept}, then the rest as one"]
+    return [f"v = v.iloc[:{kept}]  # the largest {kept}; the others are not drawn"]
 
 
 # ----------------------------------------------------------------------------------------------

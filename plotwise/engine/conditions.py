@@ -74,3 +74,27 @@ def lie_factor(first: float, second: float, drawn_first: float, drawn_second: fl
     data_effect = abs(second - first) / abs(first)
     shown_effect = abs(drawn_second - drawn_first) / abs(drawn_first)
     return shown_effect / data_effect
+
+
+def kept_categories(design, profile) -> int | None:
+    """How many categories a one-axis bar, dot or lollipop chart keeps when there are more than
+    THRESHOLDS['max_shown_categories'] (the largest ones; the rest become one "all other" bar
+    for counts and sums, or are left out and said so for averages); None when all are drawn."""
+    from plotwise.engine.kinds import REGISTRY
+
+    f = profile.fields.get(design.x) if design.x else None
+    k = REGISTRY[design.kind]
+    if (f is None or f.level != "nominal" or design.hue or design.facet or design.task == "trend"
+            or not (k.summarises and k.axis_per_category) or k.parts != "none"):
+        return None
+    cap = THRESHOLDS["max_shown_categories"]
+    return cap - 1 if f.distinct > cap else None
+
+
+def drawn_labels(design, profile) -> int:
+    """How many category labels a horizontal design stacks on its axis (0 for others)."""
+    f = profile.fields.get(design.x) if design.x else None
+    if not design.horizontal or f is None:
+        return 0
+    kept = kept_categories(design, profile)
+    return kept + 1 if kept else f.distinct

@@ -13,6 +13,7 @@ from plotwise.engine.conditions import (
     groups_overlap,
     hue_severity,
     is_influential,
+    kept_categories,
     overplot_severity,
     thin_slice,
     too_many_slices,
@@ -71,7 +72,12 @@ def _hues(c: FitCase) -> None:
 
 @rule
 def _crowded_axis(c: FitCase) -> None:
-    if c.k.axis_per_category and c.ncat > THRESHOLDS["max_bars"] and c.d.task != "trend":
+    kept = kept_categories(c.d, c.profile)
+    if kept:
+        c.note(f"{c.ncat} categories: the largest {kept} are drawn, "
+               + ("the rest combined into one" if c.d.stat in ("count", "sum")
+                  else "the rest left out (averages do not combine)"))
+    elif c.k.axis_per_category and c.ncat > THRESHOLDS["max_bars"] and c.d.task != "trend":
         c.penalise("crowded_axis",
                    f"{c.ncat} bars crowd the axis; filter to the top ones or group the rest")
 

@@ -174,6 +174,9 @@ THRESHOLDS: dict[str, Any] = {
     "long_label": 6,
     # Categories beyond this make a bar chart crowded (common practice).
     "max_bars": 30,
+    # One axis of bars or dots shows at most this many categories: the largest, then one for
+    # "all other" (common practice: beyond about two dozen labels nobody reads them all).
+    "max_shown_categories": 25,
     # Scatter of more points than this switches the advice to hexbin (common practice).
     "scatter_max_points": 5000,
     # Large frames (our own documented sizes): profiling statistics that cost more than a pass
@@ -238,6 +241,9 @@ SCATTER_MARKER_AREA_PT2 = 36.0
 # overplotting estimate alike; about this share of it is the plotting area (the rest holds
 # titles, labels and ticks).
 PANEL_SIZE_IN = (4.6, 4.2)
+# A category label needs about this much height (7-pt text with spacing) when labels are stacked
+# on an axis; a panel grows to fit them (our own layout).
+LABEL_HEIGHT_IN = 0.17
 PANEL_DPI = 100
 PANEL_PLOT_FRACTION = 0.75
 

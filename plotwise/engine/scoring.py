@@ -17,6 +17,7 @@ from plotwise.engine.rules import (
     ROLE_WEIGHTS,
     SCORE_WEIGHTS,
     STEVENS_EXPONENTS,
+    THRESHOLDS,
     UNLISTED_TASK_FIT,
 )
 from plotwise.engine.stats import DesignStats
@@ -111,6 +112,11 @@ def expressiveness(design: Design, profile: Profile, stats: DesignStats | None =
         if design.stat == "mean":
             bad.append(f"averages of '{measure}' are not parts of one whole; stacking or "
                        "slicing them adds numbers that do not add up")
+    parts = design.encoding.get("hue") if k.parts != "none" else None
+    if parts in f and f[parts].distinct > THRESHOLDS["hues_severe"]:
+        bad.append(f"{f[parts].distinct} parts of '{parts}' in one {design.kind}: more colours "
+                   "than a reader can match to a legend (Miller 1956), so the parts cannot be "
+                   "read")
     total = stats.share_total if stats is not None else None
     if k.parts == "whole" and total is not None and not total.adds_up:
         bad.append(f"the shares in '{measure}' add to {total.sum:.4g}, not {total.whole}: "
