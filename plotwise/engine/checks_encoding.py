@@ -10,6 +10,7 @@ from plotwise.engine.conditions import (
     lie_factor,
     overplot_severity,
     skewed,
+    skewed_with_zeros,
     thin_slice,
     too_many_slices,
 )
@@ -156,6 +157,15 @@ def _skewed(ctx: HazardContext) -> list[Hazard]:
                               "use a log axis for histograms, scatter and dot plots (bars keep "
                               "a linear axis from zero), or compare medians",
                               (), (col,)))
+        elif skewed_with_zeros(f):
+            share = f.zeros / max(f.usable, 1)
+            out.append(Hazard("skewed", "warn",
+                              f"'{col}' is right-skewed (skewness {f.skew:.1f}) and {share:.0%} "
+                              "of its values are 0: most values crowd into the bottom of a "
+                              "linear axis, and a log axis would drop the zeros.",
+                              "draw log(1 + x) (numpy.log1p), or show the zeros apart from the "
+                              "positive values (their share, then the positive values on a log "
+                              "axis)", (), (col,)))
     return out
 
 

@@ -22,6 +22,13 @@ def skewed(f: FieldProfile | None) -> bool:
             and f.maximum / f.minimum >= THRESHOLDS["skew_span"])
 
 
+def skewed_with_zeros(f: FieldProfile | None) -> bool:
+    """Non-negative data, highly skewed (Bulmer 1979), with zeros among the values: a log axis
+    would drop the zeros (zero-inflated counts and amounts)."""
+    return (f is not None and f.level == "quantitative" and f.skew is not None
+            and f.minimum == 0 and f.zeros > 0 and f.skew > THRESHOLDS["skew_log"])
+
+
 def is_binary(f: FieldProfile | None) -> bool:
     """A 0/1 outcome (exact min and max from the profile)."""
     return (f is not None and f.level == "quantitative" and f.minimum is not None

@@ -39,6 +39,7 @@ class FieldProfile:
     std: float | None = None
     skew: float | None = None
     infinite: int = 0
+    zeros: int = 0  # rows holding exactly 0 (of the profiled rows)
     is_integer: bool = False
     is_discrete: bool = False
     zero_meaningful: bool | None = None
@@ -315,6 +316,7 @@ def _quantitative(fp: FieldProfile, values: np.ndarray) -> None:
             warnings.simplefilter("ignore")
             fp.skew = float(pd.Series(finite).skew())
     fp.is_integer = bool(np.all(np.mod(finite, 1) == 0))
+    fp.zeros = int(np.count_nonzero(finite == 0))
     levels = THRESHOLDS["discrete_levels"]
     fp.is_discrete = fp.is_integer and fp.distinct <= levels
     label = fp.label

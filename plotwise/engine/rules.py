@@ -133,8 +133,9 @@ THRESHOLDS: dict[str, Any] = {
     "share_rounding_per_part": 0.5,
     # A density or violin on fewer points than this is mostly the kernel's shape (common practice).
     "few_points": 20,
-    # Sample skewness above this on positive data suggests a log axis (common practice).
-    "skew_log": 2.0,
+    # |Sample skewness| above 1 is "highly skewed" (Bulmer, M. G. 1979, Principles of
+    # Statistics, Dover; threshold from memory); on positive data it suggests a log axis.
+    "skew_log": 1.0,
     # ...and only when the values span at least this ratio (largest / smallest), so a log axis
     # has orders of magnitude to spread out (common practice).
     "skew_span": 10.0,

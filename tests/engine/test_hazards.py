@@ -160,3 +160,20 @@ def test_every_registered_code_is_documented():
     readme = open("README.md", encoding="utf-8").read()
     for code in plotwise.hazard_codes():
         assert f"`{code}`" in readme, code
+
+
+def test_skewed_with_zeros():
+    # statsmodels' Fair (1978) affairs data: 'affairs' is 0 for about two thirds of the women
+    # and highly skewed (sample skewness about 8.8, checked with pandas); |skewness| > 1 is
+    # "highly skewed" (Bulmer 1979, from memory). A log axis would drop the zeros.
+    import statsmodels.api as sm
+
+    fair = sm.datasets.fair.load_pandas().data
+    assert fair["affairs"].skew() > 1 and (fair["affairs"] == 0).mean() > 0.5
+    found = [h for h in plotwise.advise(fair, "distribution", x="affairs").hazards
+             if h.code == "skewed"]
+    assert found and "are 0" in found[0].message and "log1p" in found[0].fix
+    # Near-twin: years married is only moderately skewed (about 0.7) and has no zeros.
+    assert fair["yrs_married"].skew() < 1
+    calm = plotwise.advise(fair, "distribution", x="yrs_married")
+    assert "skewed" not in {h.code for h in calm.hazards}
