@@ -268,7 +268,9 @@ def _heatmap(c: Ctx) -> list[str]:
                 per = [f"np.arange({c.data}[{v!r}].min() - 0.5, {c.data}[{v!r}].max() + 1.5)"
                        if disc else "25" for v, disc in zip((d.x, d.y), discrete)]
                 bins = f"discrete={discrete!r}, bins=({per[0]}, {per[1]})"
-            return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, {bins}, cmap={c.cmap()}, "
+            # a Colormap object, not its name: seaborn refuses some names (e.g. 'jet') there
+            return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, {bins}, "
+                    f"cmap=plt.get_cmap({c.cmap()}), "
                     f"cbar=True, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                     ] + _labels(c, d.x, d.y) + _style(c, None)
         return [f"t = pd.crosstab({c.data}[{d.y!r}], {c.data}[{d.x!r}])",

@@ -246,3 +246,20 @@ def test_two_d_histogram_gives_a_whole_number_axis_one_cell_per_value():
     xs = np.unique(mesh.get_coordinates()[..., 0])
     levels = np.sort(d["educ"].unique())
     np.testing.assert_allclose(xs, np.arange(levels.min() - 0.5, levels.max() + 1.5))
+
+
+@pytest.mark.parametrize("cmap", ["jet", "rainbow", "flare", "Greys"])
+def test_any_colormap_name_draws_every_lightness_design(cmap):
+    # seaborn's own palette lookup refuses some matplotlib names ('jet'); every name matplotlib
+    # knows must still draw (the rainbow-colormap hazard then says why not to use it).
+    from open_data import iris
+
+    a = plotwise.advise(iris(), "correlate", cmap=cmap)
+    drawn = 0
+    for d in a.designs:
+        if "lightness" in d.encoding and d.expressive:
+            fig = Figure()
+            draw(d, iris(), fig.subplots())
+            assert any(len(ax.collections) or ax.images for ax in fig.axes)
+            drawn += 1
+    assert drawn >= 2
