@@ -74,8 +74,14 @@ def group_lines(design: Design, profile: Profile) -> list[str]:
                                           else [])
     return [f'd[{col!r}] = d[{col!r}].round().astype("Int64")'
             for col in dict.fromkeys(c for c in named if c)
-            if col in profile.fields and few_integers(profile.fields[col])
+            if col in profile.fields and whole_codes(profile.fields[col])
             and col in design.columns]
+
+
+def whole_codes(f) -> bool:
+    """A few whole numbers, or an ordered scale of integer codes (ratings 1..5)."""
+    return few_integers(f) or (f.level == "ordinal" and bool(f.order) and all(
+        isinstance(o, int) for o in f.order))
 
 
 def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:

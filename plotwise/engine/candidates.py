@@ -164,7 +164,8 @@ def _trend(profile: Profile, r: Roles, agg) -> list[Design]:
 def _proportion(profile: Profile, r: Roles, agg) -> list[Design]:
     x, y, hue = r.x, r.y, r.hue
     stat = _measure_stat(profile, x, y, "proportion", agg)
-    if stat not in ("count", "sum", "value"):
+    if stat not in ("count", "sum", "value") or (
+            stat == "value" and is_non_additive(profile.fields[y])):
         # Rates, percentages and averages do not add up to a whole: no shares, only the
         # per-category values (the reasons say why).
         return [d for d in _compare(profile, r, agg) if kind_record(d.kind).parts == "none"

@@ -26,6 +26,10 @@ if TYPE_CHECKING:
 
 Measure = Literal["additive", "non-additive", "unknown", "identifier", "flag", "constant"]
 
+# Name prefixes of percentage columns ('percollege', 'PERBLACK', 'pctwhite'); only with values
+# within 0–100 (common practice).
+PERCENT_PREFIXES = ("per", "pct", "pc")
+
 # Columns whose role as a measure is ruled out.
 NOT_MEASURES = ("identifier", "flag", "constant")
 
@@ -82,6 +86,9 @@ def _data_evidence(fp: FieldProfile, uniq: np.ndarray) -> str | None:
     share_name = name_says(fp.label, SHARE_NAME_HINTS)
     if share_name and lo >= 0 and hi <= 100:
         return f"values within 0–{'1' if hi <= 1 else '100'} and the name says '{share_name}': a share"
+    per = next((t for t in name_tokens(fp.label) if t.startswith(PERCENT_PREFIXES)), None)
+    if per and lo >= 0 and hi <= 100:
+        return f"values within 0–100 and the name '{per}' reads as a percentage"
     if lo >= 0 and hi <= 1 and not fp.is_integer:
         return "fractions between 0 and 1: a rate or share of each item"
     coord = name_says(fp.label, ("lat", "latitude", "lon", "lng", "long", "longitude"))

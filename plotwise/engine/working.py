@@ -27,6 +27,11 @@ def conversion(f: FieldProfile) -> str:
         return "{}.dt.total_seconds()"
     if f.level == "temporal" and f.is_integer:
         return '{}.round().astype("Int64")'  # integer years: label 1950, not 1950.0
+    if f.level == "ordinal" and f.order and all(isinstance(o, str) for o in f.order) \
+            and not f.dtype.startswith("category"):
+        # an ordered scale held as text: an ordered Categorical, so groups and stacks keep it
+        order = repr(list(f.order)).replace("{", "{{").replace("}", "}}")
+        return "{}.astype(pd.CategoricalDtype(" + order + ", ordered=True))"
     if f.level != "quantitative":
         return "{}"
     if f.dtype == "float64":
