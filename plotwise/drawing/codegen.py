@@ -108,6 +108,14 @@ def working_lines(design: Design, profile: Profile, frame: str) -> list[str]:
     return lines + group_lines(design, profile)
 
 
+def legend_lines(design: Design, ax: str = "ax") -> list[str]:
+    """A colour legend goes outside the data, to the right of the axes."""
+    if not design.hue:
+        return []
+    return [f"if {ax}.get_legend() is not None:  # the legend outside the data",
+            f"    sns.move_legend({ax}, \"upper left\", bbox_to_anchor=(1, 1), frameon=False)"]
+
+
 def note_lines(design: Design, ax: str = "ax") -> list[str]:
     note = design.options.note
     if not note:
@@ -120,7 +128,8 @@ def body_lines(design: Design, profile: Profile, frame: str = "df") -> list[str]
     """The drawing body: expects ``ax`` (a matplotlib Axes) and the caller's frame."""
     lines = working_lines(design, profile, frame)
     if design.facet is None:
-        return lines + GENERATORS[design.kind](Ctx(design, profile)) + note_lines(design)
+        return (lines + GENERATORS[design.kind](Ctx(design, profile)) + legend_lines(design)
+                + note_lines(design))
     f = design.facet
     lines += [f"groups = [k for k, part in d.groupby({f!r}, observed=True)]",
               "ncols = min(4, len(groups))",
@@ -140,6 +149,7 @@ def body_lines(design: Design, profile: Profile, frame: str = "df") -> list[str]
 
 
 HEADER = [
+    "import matplotlib.dates as mdates",
     "import matplotlib.pyplot as plt",
     "import numpy as np",
     "import pandas as pd",

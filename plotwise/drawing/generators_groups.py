@@ -23,8 +23,10 @@ def _bar(c: Ctx) -> list[str]:
         lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
         f = c.f(d.x)
         dates = f.level == "temporal" and not f.is_integer
-        if (len(f.top_labels) and f.distinct > 12) or (dates and f.distinct > 6):
+        if dates and f.distinct > 6:
             lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=90)')
+        else:
+            lines += c.upright_ticks(d.x)
     return lines
 
 
@@ -72,9 +74,16 @@ def _lollipop(c: Ctx) -> list[str]:
 def _over_time_finish(c: Ctx, f: FieldProfile | None) -> list[str]:
     """Labels and style of a measure drawn over x; dates on x get slanted tick labels."""
     lines = _labels(c, c.d.x, c.measure_label()) + _style(c, "y")
-    if f is not None and f.level == "temporal" and not f.is_integer:
-        lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=30)')
-    return lines
+    return lines + _date_axis(c, f) + c.upright_ticks(c.d.x)
+
+
+def _date_axis(c: Ctx, f: FieldProfile | None) -> list[str]:
+    """Dates on x: a few ticks a date locator picks, labelled concisely (2013, Apr, Jul...)."""
+    if f is None or f.level != "temporal" or f.is_integer:
+        return []
+    return ["loc = mdates.AutoDateLocator(minticks=3, maxticks=6)",
+            f"{c.ax}.xaxis.set_major_locator(loc)",
+            f"{c.ax}.xaxis.set_major_formatter(mdates.ConciseDateFormatter(loc))"]
 
 
 def _time_dots(c: Ctx) -> list[str]:
@@ -105,7 +114,9 @@ def _grouped_bar(c: Ctx) -> list[str]:
     lines = [f"v = {c.grouped([d.x, d.hue])}{reset}"]
     if d.options.share:
         lines.append(f"v[{vn!r}] = v[{vn!r}] / v.groupby({d.hue!r})[{vn!r}].transform(\"sum\") * 100")
-    lines += [f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
+    xtext = (f"pd.Index({c.date_text(f'pd.DatetimeIndex(v[{d.x!r}])')})" if c.dates(d.x)
+             else f"v[{d.x!r}].astype(str)")
+    lines += [f"v[{d.x!r}] = {xtext}",
               f"v[{d.hue!r}] = v[{d.hue!r}].astype(str)"]
     if c.nominal(d.x):
         lines.append(f"order = list(v.groupby({d.x!r})[{vn!r}].sum().sort_values(ascending=False).index)")
@@ -121,6 +132,10 @@ def _grouped_bar(c: Ctx) -> list[str]:
         lines.append(f'sns.barplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, order=order, '
                      f'hue_order=hues, palette={pal}, errorbar=None, ax={c.ax})')
         lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
+        if c.dates(d.x) and c.f(d.x).distinct > 6:
+            lines.append(f'{c.ax}.tick_params(axis="x", labelrotation=90)')
+        else:
+            lines += c.upright_ticks(d.x)
     lines.append(_legend(c))
     return lines
 
@@ -189,7 +204,7 @@ def _line(c: Ctx, area: bool = False) -> list[str]:
                 f"sns.lineplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, hue_order=hues, "
                 f"palette={c.palette(c.f(d.hue).distinct, 'len(hues)')}, errorbar=None, ax={c.ax})",
                 _legend(c),
-                ] + _labels(c, d.x, c.measure_label()) + _style(c, "y")
+                ] + _labels(c, d.x, c.measure_label()) + _style(c, "y") + _date_axis(c, f)
     lines = [f"v = {c.grouped([d.x])}"]
     if f is not None and f.level == "ordinal" and f.order:
         lines.append("labels = v.index.astype(str)")

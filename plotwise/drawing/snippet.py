@@ -49,6 +49,10 @@ def palette_expr(n_hint: int, count: str | None = None, own: list | None = None)
     return f'sns.color_palette("husl", {count or n_hint})'
 
 
+TICK_ROW_CHARS = 50  # characters of category names that fit side by side under one panel
+TICK_NAMES_SEEN = 60
+
+
 class Ctx:
     """What a kind's generator needs: the design, the profile and the names of variables."""
 
@@ -78,6 +82,31 @@ class Ctx:
             return f"[k for k in {order!r} if k in set({frame}[{label!r}].astype(str))]"
         col = f"{frame}[{label!r}]" + (".astype(str)" if text else "")
         return f"sorted({col}.unique(){key})"
+
+    def upright_ticks(self, label) -> list[str]:
+        """Turn the x tick labels upright when the categories' names would not fit side by
+        side in a panel (about 50 characters, our own measure)."""
+        f = self.f(label)
+        if f is None or f.level == "quantitative" or (f.level == "temporal" and not f.is_integer):
+            return []
+        names = [str(v) for v in (f.order or f.labels or f.top_labels)]
+        width: float = sum(len(n) + 2 for n in names[:TICK_NAMES_SEEN])
+        if f.distinct > len(names):  # only the most common names are known: scale up
+            width = width * f.distinct / max(len(names), 1)
+        if width <= TICK_ROW_CHARS:
+            return []
+        return [f'{self.ax}.tick_params(axis="x", labelrotation=90)']
+
+    def dates(self, label) -> bool:
+        """Calendar dates (not integer years) on this column."""
+        f = self.f(label)
+        return f is not None and f.level == "temporal" and not f.is_integer
+
+    def date_text(self, values: str) -> str:
+        """Code for dates as short text: the year alone when every date is a 1 January, the
+        month when every date is a first of the month, else the day."""
+        return (f"{values}.strftime(\"%Y\" if ({values}.month == 1).all() and ({values}.day == 1)"
+                f".all() else \"%Y-%m\" if ({values}.day == 1).all() else \"%Y-%m-%d\")")
 
     def ordered(self, label) -> bool:
         """The column has an order of its own (segments and legends keep it)."""
@@ -150,8 +179,10 @@ def _style(c: Ctx, value_axis: str | None) -> list[str]:
 
 
 def _legend(c: Ctx) -> str:
-    """A small frameless legend titled with the (shortened) hue column."""
-    return f"{c.ax}.legend(title={short(c.d.hue, 20)!r}, fontsize=7, title_fontsize=7, frameon=False)"
+    """A small frameless legend titled with the (shortened) hue column, outside the data (to
+    the right of the axes), so it never covers a mark."""
+    return (f"{c.ax}.legend(title={short(c.d.hue, 20)!r}, fontsize=7, title_fontsize=7, "
+            "frameon=False, loc=\"upper left\", bbox_to_anchor=(1, 1))")
 
 
 def _labels(c: Ctx, xlabel: str | None, ylabel: str | None, xnote: str = "") -> list[str]:
@@ -183,7 +214,10 @@ def _ordered_series(c: Ctx, cat: str, ascending: bool = False) -> list[str]:
         lines += _capped(c, kept)
     if c.d.options.share:
         lines.append("v = v / v.sum() * 100")
-    lines.append("labels = [f\"{k:g}\" if isinstance(k, float) else str(k) for k in v.index]")
+    if c.dates(cat):
+        lines.append(f"labels = {c.date_text('v.index')}")
+    else:
+        lines.append("labels = [f\"{k:g}\" if isinstance(k, float) else str(k) for k in v.index]")
     return lines
 
 

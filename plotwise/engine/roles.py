@@ -88,18 +88,21 @@ def strongest_pair(df, profile: Profile, labels: list[str]) -> tuple[str, str, f
     return best
 
 
-def _choose_measure(profile: Profile, r: Roles, given: set, per: str) -> None:
-    """The measure on y: the caller's (which must be numeric) or the first numeric column;
-    without one, rows are counted per category or time point."""
+def _choose_measure(profile: Profile, r: Roles, given: set, per: str,
+                    inferred: bool = False) -> None:
+    """The measure on y: the caller's (which must be numeric); without one, rows are counted
+    per category or time point — unless each has one row (a series) or no task was stated
+    (plotwise then looks for a relation to show), when the first measure is shown."""
     f = profile.fields
     if r.y is None:
         # Without a stated measure, rows are counted; only a series (one row per category or
         # time point) has nothing to count, and then its first measure is shown.
         series = profile.rows <= f[r.x].distinct + f[r.x].missing
-        m = _best_measure(profile, exclude=given | {r.x}) if series else None
+        m = _best_measure(profile, exclude=given | {r.x}) if (series or inferred) else None
         if m is not None:
             r.y = m.label
-            r.notes.append(f"measure: '{m.label}', the first numeric measure (one row per {per})")
+            why = f"one row per {per}" if series else "no task stated"
+            r.notes.append(f"measure: '{m.label}', the first numeric measure ({why})")
         else:
             r.notes.append(f"no y given: counting rows per {per} (name y=... to show a measure)")
     elif f[r.y].level != "quantitative":
@@ -147,10 +150,11 @@ def _is_period(f: FieldProfile) -> bool:
     return f.distinct == 2 and f.level in ("temporal", "ordinal")
 
 
-def _compare_roles(profile: Profile, r: Roles, task: str, given: set, df) -> Roles:
+def _compare_roles(profile: Profile, r: Roles, task: str, given: set, df,
+                   inferred: bool = False) -> Roles:
     f = profile.fields
     _category_x(profile, r, task, given)
-    _choose_measure(profile, r, given, "category")
+    _choose_measure(profile, r, given, "category", inferred and task == "compare")
     if r.hue is None and task == "compare":
         # The caller's columns define the question: a split nobody asked for is only mentioned.
         p = _two_point_column(profile, exclude=given | {r.x, r.y})
@@ -177,10 +181,10 @@ def _trend_roles(profile: Profile, r: Roles, task: str, given: set, df,
         r.x = t.label
         r.notes.append(f"time: '{t.label}' ({f[t.label].distinct} time points)")
     _check_time_axis(f[r.x], inferred)
-    _choose_measure(profile, r, given, "time point")
-    if inferred and r.y is None and f[r.x].distinct < FIT_LIMITS["inferred_count_trend_points"]:
-        raise PlotwiseError(f"'{r.x}' has only {f[r.x].distinct} time points; counting rows "
-                            "over so few is a comparison, not a trend.")
+    if inferred and f[r.x].distinct < FIT_LIMITS["inferred_trend_points"]:
+        raise PlotwiseError(f"'{r.x}' has only {f[r.x].distinct} time points; with no task "
+                            "stated, so few are compared, not drawn as a trend.")
+    _choose_measure(profile, r, given, "time point", inferred)
     if r.hue is None and f[r.x].distinct == 2:
         g = _best_category(profile, exclude=given | {r.x, r.y})
         if g is not None:
@@ -222,7 +226,8 @@ def _pick_pair(profile: Profile, r: Roles, pool: list[FieldProfile], need: int, 
     r.notes.append(f"variables: '{r.x}' and '{r.y}', the first numeric columns")
 
 
-def _correlate_roles(profile: Profile, r: Roles, task: str, given: set, df) -> Roles:
+def _correlate_roles(profile: Profile, r: Roles, task: str, given: set, df,
+                     inferred: bool = False) -> Roles:
     f = profile.fields
     nums = [c for c in f.values() if c.label != r.hue and is_measure(c) and c.distinct >= 2]
     if r.x is None or r.y is None:
@@ -246,7 +251,8 @@ def _correlate_roles(profile: Profile, r: Roles, task: str, given: set, df) -> R
     return _checked_hue(profile, r)
 
 
-def _distribution_roles(profile: Profile, r: Roles, task: str, given: set, df) -> Roles:
+def _distribution_roles(profile: Profile, r: Roles, task: str, given: set, df,
+                        inferred: bool = False) -> Roles:
     f = profile.fields
     var = r.x or r.y
     if var is None:
@@ -276,9 +282,7 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None, inferred: bool
     x, y, hue = check_roles(profile, x, y, hue)
     given = {c for c in (x, y, hue) if c}
     r = Roles(x=x, y=y, hue=hue)
-    if task == "trend":
-        return _trend_roles(profile, r, task, given, df, inferred)
-    return CHOOSERS[task](profile, r, task, given, df)
+    return CHOOSERS[task](profile, r, task, given, df, inferred)
 
 
 def _checked_hue(profile: Profile, r: Roles) -> Roles:

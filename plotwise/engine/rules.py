@@ -101,8 +101,8 @@ FIT_LIMITS = {
     "dense_grid_bars": 60,  # grouped bars beyond this many are a dense grid
     "small_heatmap_cells": 9,  # fewer cells than this: plain bars read better
     "line_min_points": 3,  # a line needs this many time points to show a trend
-    # With no task stated, counting rows over fewer time points than this is left to compare.
-    "inferred_count_trend_points": 8,
+    # With no task stated, fewer time points than this are left to compare (common practice).
+    "inferred_trend_points": 8,
     "hexbin_min_points": 500,  # fewer points than this: draw each one
     "weak_r": 0.2,  # |Pearson r| below this: a fitted line suggests a relation barely there
     "box_min_points": 5,  # quartiles of fewer points are unstable

@@ -112,6 +112,10 @@ def expressiveness(design: Design, profile: Profile, stats: DesignStats | None =
         if design.stat == "mean":
             bad.append(f"averages of '{measure}' are not parts of one whole; stacking or "
                        "slicing them adds numbers that do not add up")
+    if design.options.time_as_categories and design.x in f and \
+            f[design.x].distinct > THRESHOLDS["max_bars"]:
+        bad.append(f"{f[design.x].distinct} time points as separate bars or cells: their "
+                   "labels cannot be read and even spacing hides the calendar; a line shows them")
     parts = design.encoding.get("hue") if k.parts != "none" else None
     if parts in f and f[parts].distinct > THRESHOLDS["hues_severe"]:
         bad.append(f"{f[parts].distinct} parts of '{parts}' in one {design.kind}: more colours "
