@@ -232,13 +232,17 @@ def _slope(c: Ctx) -> list[str]:
             f"colors = {c.palette(c.f(group).distinct)}",
             "for i, (name, row) in enumerate(t.iterrows()):",
             f"    {c.ax}.plot([0, 1], row.values, marker=\"o\", color=colors[i % len(colors)])",
-            "# End labels, nudged apart so they do not overlap (at least 4% of the range).",
+            "# End labels in each line's colour, nudged apart so they do not overlap (at least",
+            "# 4% of the range) and joined to their points by a thin leader line.",
             "gap = 0.04 * ((t.max().max() - t.min().min()) or 1)",
+            "colour_of = {name: colors[i % len(colors)] for i, name in enumerate(t.index)}",
             "label_y = []",
             "for name, end in t.iloc[:, 1].sort_values().items():",
             "    label_y.append(max(end, label_y[-1] + gap) if label_y else end)",
-            f"    {c.ax}.annotate(str(name)[:18], (1, end), xytext=(1.06, label_y[-1]), "
-            "textcoords=\"data\", va=\"center\", fontsize=7)",
+            f"    {c.ax}.annotate(str(name)[:18], (1, end), xytext=(1.08, label_y[-1]), "
+            "textcoords=\"data\", va=\"center\", fontsize=7, color=colour_of[name], "
+            "arrowprops={\"arrowstyle\": \"-\", \"color\": \"#aaaaaa\", \"lw\": 0.5, "
+            "\"shrinkA\": 0, \"shrinkB\": 3})",
             f"{c.ax}.set_xticks([0, 1], [str(p) for p in t.columns])",
             f"{c.ax}.set_xlim(-0.15, 1.45)",
             ] + _labels(c, d.x, c.measure_label()) + _style(c, "y")

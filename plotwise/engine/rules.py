@@ -273,9 +273,10 @@ STEVENS_EXPONENTS = {"length": 1.0, "area": 0.7, "volume": 0.6, "brightness": 0.
 INTERVAL_NAME_HINTS = ("temp", "celsius", "fahrenheit", "latitude", "longitude", "lat", "lon",
                        "elevation", "zscore", "z_score")
 # Name fragments of measures whose totals make sense (sum them); others are averaged
-# (common practice).
+# (common practice). "volume" is not one: a flow or trading volume per period is compared by
+# its average when periods differ in length.
 SUM_NAME_HINTS = ("revenue", "sales", "count", "amount", "cost", "total", "quantity", "units",
-                  "volume", "passengers", "visits", "orders", "spend", "income", "profit", "trips",
+                  "passengers", "visits", "orders", "spend", "income", "profit", "trips",
                   "tickets", "n", "num", "number", "admitted", "applicants")
 # Name fragments of measures that describe each item, so that their totals mostly count the
 # items (rates, ratios, averages, scores, sizes and other per-item quantities): averaged, never

@@ -104,8 +104,9 @@ CASES = [
                                      "December")),
     case("nile-before-after", data.nile_periods,
          dict(task="compare", x="period", y="volume"), BARS | {"box", "strip"},
-         "before/after in that order (Cobb 1978 documents the 1898 drop)",
-         order=("before", "after")),
+         "before/after in that order (Cobb 1978 documents the 1898 drop); annual flows over "
+         "periods of 27 and 73 years are compared by their averages, not totals "
+         "(common practice)", order=("before", "after"), stat="mean"),
     case("years-as-text-slope", lambda: data.grunfeld_two_years(as_text=True),
          dict(task="compare", x="firm", y="invest", hue="year"),
          {"slope", "difference-bar", "grouped-bar", "dot"},
