@@ -110,7 +110,7 @@ CASES = kind_cases() + [
 def drawn_numbers(fig) -> list[float]:
     """The numbers a figure encodes: bar extents, wedge angles, line and point positions
     (sorted, so the order in which an engine returned rows does not matter)."""
-    from matplotlib.collections import PathCollection
+    from matplotlib.collections import PathCollection, QuadMesh
     from matplotlib.patches import Rectangle, StepPatch, Wedge
 
     out: list[float] = []
@@ -130,6 +130,9 @@ def drawn_numbers(fig) -> list[float]:
         for c in ax.collections:
             if isinstance(c, PathCollection):
                 out += [float(v) for v in np.asarray(c.get_offsets(), dtype=float).ravel()]
+            elif isinstance(c, QuadMesh):  # a heatmap: its cells' values
+                out += [float(v) for v in np.ma.masked_invalid(
+                    np.asarray(c.get_array(), dtype=float)).compressed()]
     return sorted(round(v, 6) for v in out if np.isfinite(v))
 
 
