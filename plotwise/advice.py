@@ -60,14 +60,19 @@ class Advice:
 
     def draw(self, which: int | str | Design = 0, ax=None):
         """Draw one design (index, kind or Design) on ``ax``; a new Figure when ax is None."""
-        from matplotlib.figure import Figure
-
-        from plotwise.drawing.render import PANEL_HEIGHT_IN, PANEL_WIDTH_IN, draw, plot_style
+        from plotwise.drawing.render import (
+            PANEL_HEIGHT_IN,
+            PANEL_WIDTH_IN,
+            LiteralFigure,
+            draw,
+            plot_style,
+        )
 
         d = self._pick(which)
         if ax is None:
             with plot_style():
-                fig = Figure(figsize=(PANEL_WIDTH_IN * 1.3, PANEL_HEIGHT_IN), layout="constrained")
+                fig = LiteralFigure(figsize=(PANEL_WIDTH_IN * 1.3, PANEL_HEIGHT_IN),
+                                    layout="constrained")
                 ax = fig.subplots()
         draw(d, self._frame(), ax)
         return ax

@@ -4,6 +4,7 @@ no pyplot figure is left open."""
 
 from __future__ import annotations
 
+import threading
 import warnings
 from contextlib import contextmanager
 
@@ -15,6 +16,7 @@ import pandas as pd
 import seaborn as sns
 from matplotlib.axes import Axes
 from matplotlib.figure import Figure
+from matplotlib.text import Text
 
 from plotwise.drawing.codegen import body_lines, short
 from plotwise.engine.conditions import drawn_labels
@@ -27,12 +29,30 @@ PANEL_WIDTH_IN, PANEL_HEIGHT_IN = PANEL_SIZE_IN  # one panel geometry: drawing a
 PANEL_MARGIN_IN = 1.6  # titles, axis label and ticks around stacked labels
 
 
+# matplotlib's rcParams are process-wide: two threads each inside a style block would restore
+# each other's settings. Style blocks (and drawing a plotwise figure) take turns.
+STYLE_LOCK = threading.RLock()
+
+
+class LiteralFigure(Figure):
+    """A Figure whose text is drawn literally: a '$' in a column name or label is a dollar sign,
+    never the start of a maths expression (tick labels made while drawing included)."""
+
+    def draw(self, renderer):
+        with STYLE_LOCK, mpl.rc_context({"text.parse_math": False}):
+            for text in self.findobj(Text):
+                text.set_parse_math(False)
+            return super().draw(renderer)
+
+
 @contextmanager
 def plot_style():
-    """plotwise's look, applied only inside the block."""
-    with mpl.rc_context(), sns.axes_style("ticks"), sns.plotting_context("notebook", font_scale=0.75):
+    """plotwise's look, applied only inside the block (one thread at a time)."""
+    with STYLE_LOCK, mpl.rc_context(), sns.axes_style("ticks"), \
+            sns.plotting_context("notebook", font_scale=0.75):
         mpl.rcParams["figure.dpi"] = PANEL_DPI
         mpl.rcParams["savefig.dpi"] = PANEL_DPI
+        mpl.rcParams["text.parse_math"] = False  # user strings are text, not maths
         with warnings.catch_warnings():
             # seaborn 0.13.2 with matplotlib 3.11 / pandas 3: deprecation chatter, not user news.
             warnings.filterwarnings("ignore", category=FutureWarning)
@@ -84,7 +104,7 @@ def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = 
         raise PlotwiseError("there are no designs to draw.")
     ranks = ranks or list(range(1, len(designs) + 1))
     with plot_style():
-        fig = Figure(figsize=(PANEL_WIDTH_IN * len(designs), panel_height(designs)),
+        fig = LiteralFigure(figsize=(PANEL_WIDTH_IN * len(designs), panel_height(designs)),
                      layout="constrained")
         subs = fig.subfigures(1, len(designs), wspace=0.02, squeeze=False)[0]
         for i, (sub, design) in enumerate(zip(subs, designs)):
