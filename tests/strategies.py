@@ -57,5 +57,56 @@ COLUMNS = {
 }
 
 
+def _decimal(n, rng):
+    import decimal
+
+    pool = [decimal.Decimal("1.5"), decimal.Decimal("NaN"), decimal.Decimal("-2"), None,
+            decimal.Decimal("1e3")]
+    return pd.Series([pool[int(i)] for i in rng.integers(0, len(pool), n)], dtype=object)
+
+
+def _huge(n, rng):
+    v = rng.normal(0, 1, n)
+    if n >= 2:
+        v[0], v[-1] = 1e308, -1e308
+    return v
+
+
+def _tiny_iqr(n, rng):
+    v = np.ones(n)
+    if n:
+        v[-1] = 1e300
+    return v
+
+
+def _likert(n, rng):
+    scale = ["strongly disagree", "disagree", "neutral", "agree", "strongly agree"]
+    return pd.Series([scale[int(i)] for i in rng.integers(0, 5, n)], dtype=object)
+
+
+# Families that once raised something other than a PlotwiseError: bytes, Decimal (with NaN),
+# ±1e308, a huge range with a tiny IQR, Period, Interval, complex, Arrow-backed types, text
+# that matplotlib would read as maths, ordered scales held as text, years as text.
+COLUMNS.update({
+    "bytes": lambda n, rng: pd.Series([[b"a", b"b\xff", None, "c"][int(i)]
+                                       for i in rng.integers(0, 4, n)], dtype=object),
+    "decimal": _decimal,
+    "huge": _huge,
+    "tinyiqr": _tiny_iqr,
+    "period": lambda n, rng: pd.Series(pd.period_range("2020-01", periods=n, freq="M")),
+    "interval": lambda n, rng: pd.Series(pd.cut(rng.normal(size=n), 3)) if n else pd.Series([]),
+    "complex": lambda n, rng: rng.normal(size=n) + 1j,
+    "arrow_str": lambda n, rng: pd.array([f"k{int(x)}" for x in rng.integers(0, 4, n)],
+                                         dtype="string[pyarrow]"),
+    "arrow_int": lambda n, rng: pd.array([int(x) for x in rng.integers(0, 99, n)],
+                                         dtype="int64[pyarrow]"),
+    "mathtext": lambda n, rng: pd.Series([["$5–$10", "$x^$", "a_b", "50%"][int(i)]
+                                          for i in rng.integers(0, 4, n)], dtype=object),
+    "likert": _likert,
+    "yeartext": lambda n, rng: pd.Series([["2023", "2024"][int(i)]
+                                          for i in rng.integers(0, 2, n)], dtype=object),
+})
+
+
 def column(kind: str, n: int, rng: np.random.Generator):
     return COLUMNS[kind](n, rng)

@@ -10,6 +10,8 @@ from plotwise.engine.working import aggregate
 
 
 def fmt(v: float) -> str:
+    # 12 significant digits first: sums added in another order (an engine's) print the same
+    v = float(f"{v:.12g}")
     a = abs(v)
     if a >= 1000:
         return f"{v:,.0f}"

@@ -40,6 +40,7 @@ class FieldProfile:
     skew: float | None = None
     infinite: int = 0
     zeros: int = 0  # rows holding exactly 0 (of the profiled rows)
+    holds_bytes: bool = False  # Python bytes values: decoded as UTF-8 before use
     is_integer: bool = False
     is_discrete: bool = False
     zero_meaningful: bool | None = None
@@ -245,6 +246,12 @@ def profile_series(s: pd.Series, name) -> FieldProfile:
         _quantitative(fp, values)
         return fp
 
+    if pd.api.types.is_complex_dtype(dtype):  # never drop the imaginary part silently
+        fp.as_text = True
+        _text(fp, s)
+        ev.append("complex numbers: compared as text; for a measure, draw np.abs() or .real")
+        return fp
+
     if pd.api.types.is_numeric_dtype(dtype):
         values = _numeric_values(s)
         _quantitative(fp, values)
@@ -261,7 +268,10 @@ def _text(fp: FieldProfile, s: pd.Series) -> None:
     fp.labels = _all_labels(s)
     if pd.api.types.is_object_dtype(s.dtype):
         kinds = {type(v).__name__ for v in s.dropna().head(1000)}
-        if kinds - {"str"}:
+        if "bytes" in kinds:
+            fp.as_text = fp.holds_bytes = True
+            ev.append("bytes: decoded as UTF-8 (bytes that are not UTF-8 shown as �)")
+        elif kinds - {"str"}:
             fp.as_text = True
             ev.append(f"mixed Python values ({', '.join(sorted(kinds))}): compared as text")
     if looks_like_dates(s):

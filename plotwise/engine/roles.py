@@ -4,6 +4,8 @@ its own chooser; ``choose_roles`` dispatches and checks the hue."""
 
 from __future__ import annotations
 
+import numpy as np
+
 from plotwise.engine.design import Roles
 from plotwise.engine.meaning import NOT_MEASURES
 from plotwise.engine.profile import FieldProfile, Profile, few_integers
@@ -281,8 +283,24 @@ def choose_roles(profile: Profile, task: str, x, y, hue, df=None, inferred: bool
     with a note saying why. ``inferred``: no task was stated (plotwise ranks across tasks)."""
     x, y, hue = check_roles(profile, x, y, hue)
     given = {c for c in (x, y, hue) if c}
-    r = Roles(x=x, y=y, hue=hue)
-    return CHOOSERS[task](profile, r, task, given, df, inferred)
+    r = CHOOSERS[task](profile, Roles(x=x, y=y, hue=hue), task, given, df, inferred)
+    for col in dict.fromkeys(c for c in (r.x, r.y) if c):
+        _check_range(profile.fields[col])
+    return r
+
+
+def _check_range(f: FieldProfile) -> None:
+    """Values so far apart that float arithmetic overflows on their difference (±1e308) cannot
+    be binned, averaged or drawn on one axis; they are nearly always sentinels or errors."""
+    if f.level != "quantitative" or f.minimum is None or f.maximum is None:
+        return
+    with np.errstate(over="ignore"):
+        span = np.float64(f.maximum) - np.float64(f.minimum)
+    if not np.isfinite(span) or not np.isfinite(np.float64(f.maximum) + np.float64(f.minimum)):
+        raise PlotwiseError(
+            f"'{f.label}' runs from {f.minimum:.4g} to {f.maximum:.4g}, too wide a range for "
+            "floating-point arithmetic (such values are usually placeholders or errors); leave "
+            f"them out first, e.g. df[df[{f.label!r}].abs() < 1e300].")
 
 
 def _checked_hue(profile: Profile, r: Roles) -> Roles:

@@ -35,9 +35,10 @@ def kde_modes(values, log: bool = False) -> int:
         return 1
     if len(np.unique(v)) < 5:
         return 1
+    v = v / np.max(np.abs(v))  # modes do not depend on scale; this keeps ±1e308 from overflowing
     try:
         kde = gaussian_kde(v, bw_method="silverman")
-    except np.linalg.LinAlgError:
+    except (np.linalg.LinAlgError, ValueError):  # a singular or non-finite covariance: one mode
         return 1
     grid = np.linspace(v.min(), v.max(), 512)
     dens = kde(grid)

@@ -19,6 +19,9 @@ _NUMPY_NUMBERS = {"int8", "int16", "int32", "int64", "uint8", "uint16", "uint32"
 
 def conversion(f: FieldProfile) -> str:
     """The expression that converts column ``f``, with ``{}`` where the column goes."""
+    if f.holds_bytes:  # bytes: decoded, never failing on bytes that are not UTF-8
+        return ('{}.map(lambda v: v.decode("utf-8", "replace") if isinstance(v, bytes) else v)'
+                '.astype("string")')
     if f.as_text:
         return '{}.astype("string")'  # mixed Python objects: compared as their text
     if f.parse_dates:

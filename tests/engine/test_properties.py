@@ -17,16 +17,22 @@ import plotwise
 from plotwise import PlotwiseError
 from plotwise.drawing.render import draw
 
-# 2,000 generated frames per CI run (override with PLOTWISE_EXAMPLES).
-EXAMPLES = int(os.environ.get("PLOTWISE_EXAMPLES", "2000"))
-COUNT = {"frames": 0, "advice": 0, "errors": 0}
+# 3,000 generated frames per CI run (override with PLOTWISE_EXAMPLES); every FULL_EVERY-th
+# advised frame also goes the whole way: show(), the notebook display (HTML and PNG) and every
+# shown design's code() run in a fresh namespace.
+EXAMPLES = int(os.environ.get("PLOTWISE_EXAMPLES", "3000"))
+FULL_EVERY = int(os.environ.get("PLOTWISE_FULL_EVERY", "20"))
+COUNT = {"frames": 0, "advice": 0, "errors": 0, "full": 0}
 MESSAGES: list[str] = []
 
 from strategies import column  # noqa: E402
 
 KINDS = ["int", "float", "posfloat", "Int64", "Float64", "boolean", "string", "object_mixed", "cat",
-         "ordcat", "date", "datetz", "timedelta", "bool", "constant", "allmissing", "highcard", "datetext"]
-NAMES = ["a", "b", "value", 0, 1, "<b>x</b>", "with space", "é", "x\ny", "a"]
+         "ordcat", "date", "datetz", "timedelta", "bool", "constant", "allmissing", "highcard",
+         "datetext", "bytes", "decimal", "huge", "tinyiqr", "period", "interval", "complex",
+         "arrow_str", "arrow_int", "mathtext", "likert", "yeartext"]
+NAMES = ["a", "b", "value", 0, 1, "<b>x</b>", "with space", "é", "x\ny", "a", "$x^$",
+         "price ($) vs cost ($)", "*", "^v.*$"]
 
 
 @st.composite
@@ -82,16 +88,36 @@ def test_any_frame_gives_advice_or_clear_error(df, task, data):
             draw(advice.shown(1)[0], df, fig.subplots())
         except PlotwiseError as exc:
             assert "could not draw" in str(exc)
+        if COUNT["advice"] % FULL_EVERY == 0:
+            whole_way(advice, df)
     pd.testing.assert_frame_equal(df, before)
     assert dict(mpl.rcParams) == rc
     assert plt.get_fignums() == []
+
+
+def whole_way(advice, df):
+    """show(), the notebook display and every shown design's code in a fresh namespace."""
+    COUNT["full"] += 1
+    try:
+        advice.show()
+        bundle = advice._repr_mimebundle_()
+        assert bundle["text/html"] and bundle["image/png"]
+    except PlotwiseError as exc:
+        assert "could not draw" in str(exc)
+        return
+    for d in advice.shown():
+        namespace = {"frame": df}
+        try:
+            exec(compile(d.code("frame"), "<snippet>", "exec"), namespace)  # noqa: S102
+        finally:
+            plt.close("all")
 
 
 def test_generated_enough_frames():
     # Runs after the property test (file order).
     if COUNT["frames"] == 0:
         pytest.skip("property test not run in this session")
-    assert COUNT["frames"] >= min(EXAMPLES, 2000) * 0.9
+    assert COUNT["frames"] >= min(EXAMPLES, 3000) * 0.9
     if os.environ.get("PLOTWISE_SHOW_ERRORS"):
         from collections import Counter
 
