@@ -15,23 +15,39 @@ import sys
 from pathlib import Path
 
 
-def run_script(path: Path) -> list:
-    """Run ``path`` as __main__ with the Agg backend and plt.show() a no-op; return its figures."""
+class ScriptTimeout(BaseException):
+    """The audited script ran longer than --timeout seconds."""
+
+
+def run_script(path: Path, timeout: float = 0) -> list:
+    """Run ``path`` as __main__ with the Agg backend and plt.show() a no-op; return its figures.
+    A ``timeout`` (seconds, > 0) stops a script that does not end (ScriptTimeout)."""
     import runpy
+    import signal
 
     import matplotlib
 
     matplotlib.use("Agg", force=True)
     import matplotlib.pyplot as plt
 
+    def stop(signum, frame):
+        raise ScriptTimeout
+
     before = set(plt.get_fignums())
     show = plt.show
     plt.show = lambda *a, **k: None
     old_argv = sys.argv
     sys.argv = [str(path)]
+    timed = timeout > 0 and hasattr(signal, "setitimer")
+    if timed:
+        old_handler = signal.signal(signal.SIGALRM, stop)
+        signal.setitimer(signal.ITIMER_REAL, timeout)
     try:
         runpy.run_path(str(path), run_name="__main__")
     finally:
+        if timed:
+            signal.setitimer(signal.ITIMER_REAL, 0)
+            signal.signal(signal.SIGALRM, old_handler)
         plt.show = show
         sys.argv = old_argv
     return [plt.figure(n) for n in plt.get_fignums() if n not in before]
@@ -45,12 +61,20 @@ def cmd_audit(args) -> int:
         print(f"plotwise: no such script: {path}", file=sys.stderr)
         return 2
     try:
-        figures = run_script(path)
+        figures = run_script(path, args.timeout)
     except SystemExit as exc:
         print(f"plotwise: {path} called sys.exit({exc.code!r}) before its figures could be audited",
               file=sys.stderr)
         return 2
-    except Exception as exc:  # the user's script failed: say so briefly, like a linter would
+    except ScriptTimeout:
+        print(f"plotwise: {path} was still running after {args.timeout:g} s and was stopped; "
+              "raise --timeout if it needs longer", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        print(f"plotwise: {path} was interrupted before its figures could be audited",
+              file=sys.stderr)
+        return 2
+    except BaseException as exc:  # noqa: BLE001 - the user's script failed: say so briefly
         print(f"plotwise: {path} raised {type(exc).__name__}: {exc}", file=sys.stderr)
         return 2
     if not figures:
@@ -96,6 +120,9 @@ def main(argv=None) -> int:
     p = sub.add_parser("audit", help="run a plotting script and audit every figure it creates; "
                                      "exit 1 when a severe hazard is found")
     p.add_argument("script", help="path to a Python script that draws with matplotlib/seaborn/pandas")
+    p.add_argument("--timeout", type=float, default=300,
+                   help="stop the script after this many seconds and exit 2 (default 300; 0: "
+                        "no limit)")
     p.set_defaults(func=cmd_audit)
     from plotwise.engine.rules import TASKS
 

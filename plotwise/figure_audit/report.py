@@ -23,6 +23,7 @@ AUDIT_ONLY_CODES = {
     "area-encoding": "marker size encodes a quantity",
     "unlabelled-axis": "a value axis with no label",
     "crowded-ticks": "overlapping tick labels",
+    "unreadable-text": "a label matplotlib cannot draw (broken maths markup)",
 }
 
 

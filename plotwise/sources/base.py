@@ -163,6 +163,19 @@ def _checked(src: Source) -> Source:
             "'_').replace('`', '') for c in df.columns]).")
     if not src.columns:
         raise PlotwiseError(f"the {src.kind} has no columns; advise on data with columns in it.")
+    nul = [c for c in src.columns if "\x00" in c]
+    if nul:
+        raise PlotwiseError(f"column name(s) {nul[:5]} hold a NUL character, which the "
+                            f"{src.engine_name} engine cannot pass on; rename them first, e.g. "
+                            "with names of letters, digits and spaces.")
+    if src.engine in ("polars", "duckdb", "dask", "spark", "pyarrow"):
+        odd = [c for c in src.columns if c == "*" or (c.startswith("^") and c.endswith("$"))]
+        if odd:
+            raise PlotwiseError(
+                f"column name(s) {odd[:5]} read as a wildcard or a regular expression in "
+                f"{src.engine_name}'s column selection (every column, or every matching one); "
+                "rename them first, e.g. 'all' or 'v_pattern'.")
+    return src
     dupes = sorted({c for c in src.columns if src.columns.count(c) > 1})
     if dupes:
         raise PlotwiseError(f"the {src.kind} has duplicate column names {dupes[:5]}; rename them.")

@@ -141,3 +141,43 @@ def test_regression_mixed_object_column():
     fig = Figure()
     draw(advice.designs[0], df, fig.subplots())
     pd.testing.assert_frame_equal(df, before)
+
+
+# Regression tests for the families an independent sweep found (each once ended in something
+# other than a PlotwiseError).
+def test_regression_bytes_are_decoded_not_fatal():
+    df = pd.DataFrame({"g": [b"x", b"y", b"\xff"] * 20, "v": np.arange(60.0)})
+    a = plotwise.advise(df, "compare", x="g", y="v")
+    assert "bytes" in " ".join(a.fields["g"].evidence)
+    fig = a.show()
+    labels = {t.get_text() for ax in fig.axes for t in ax.get_yticklabels() + ax.get_xticklabels()}
+    assert {"x", "y", "\ufffd"} <= labels  # undecodable bytes become the replacement character
+
+
+def test_regression_decimal_with_nan():
+    import decimal
+
+    pool = [decimal.Decimal("1.5"), decimal.Decimal("NaN"), decimal.Decimal("2")]
+    df = pd.DataFrame({"g": list("abc") * 20, "v": pd.Series(pool * 20, dtype=object)})
+    for task in (None, "compare", "distribution"):
+        try:
+            plotwise.advise(df, task).show()
+        except PlotwiseError:
+            pass
+
+
+def test_regression_range_beyond_float_arithmetic_is_refused_clearly():
+    v = np.r_[np.random.default_rng(0).normal(size=58), 1e308, -1e308]
+    df = pd.DataFrame({"g": list("abc") * 20, "v": v})
+    with pytest.raises(PlotwiseError, match="too wide a range"):
+        plotwise.advise(df, "distribution", x="v")
+    tiny_iqr = pd.DataFrame({"v": np.r_[np.ones(59), 1e300]})  # bins from the range: bounded
+    plotwise.advise(tiny_iqr, "distribution").show()
+
+
+def test_regression_complex_keeps_its_imaginary_part():
+    from plotwise.engine.profile import profile_frame
+
+    df = pd.DataFrame({"v": np.arange(10.0) + 1j})
+    fp = profile_frame(df)["v"]
+    assert fp.level != "quantitative" and "complex" in " ".join(fp.evidence)

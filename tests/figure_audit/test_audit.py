@@ -217,3 +217,31 @@ def test_cli_exit_codes(tmp_path):
     missing = subprocess.run([sys.executable, "-m", "plotwise", "audit", str(tmp_path / "nope.py")],
                              capture_output=True, text=True)
     assert missing.returncode == 2 and "no such script" in missing.stderr
+
+
+def test_cli_stops_a_script_that_never_ends(tmp_path):
+    script = tmp_path / "forever.py"
+    script.write_text("import matplotlib.pyplot as plt\nplt.plot([1, 2])\nwhile True:\n    pass\n")
+    r = subprocess.run([sys.executable, "-m", "plotwise", "audit", "--timeout", "1", str(script)],
+                       capture_output=True, text=True, timeout=60)
+    assert r.returncode == 2 and "still running after 1 s" in r.stderr
+    assert "Traceback" not in r.stderr
+
+
+@pytest.mark.parametrize("body", ["raise KeyboardInterrupt\n",
+                                  "class Stop(BaseException):\n    pass\nraise Stop('halt')\n"])
+def test_cli_base_exceptions_are_reported_not_dumped(tmp_path, body):
+    r = _cli(tmp_path, body)
+    assert r.returncode == 2 and "Traceback" not in r.stderr and r.stderr.startswith("plotwise:")
+
+
+def test_audit_reports_a_label_the_maths_parser_rejects():
+    from matplotlib.figure import Figure
+
+    fig = Figure()
+    ax = fig.subplots()
+    ax.bar(["$x^$", "b"], [3, 4])
+    ax.set_ylabel("n")
+    report = plotwise.audit(fig)
+    assert [h.code for h in report.hazards] == ["unreadable-text"]
+    assert report.worst == "severe"

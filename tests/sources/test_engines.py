@@ -434,3 +434,22 @@ def test_wide_engine_table_gets_a_smaller_profile_sample(to_engine):
     expected = max(THRESHOLDS["draw_sample"], THRESHOLDS["engine_sample_cells"] // width)
     assert a.profile.sample_rows == expected < n
     assert a.profile.rows == n and a.fields["c7"].mean == pytest.approx(df["c7"].mean(), abs=1e-12)
+
+
+@pytest.mark.parametrize("name", ["a\x00b", "*", "^v.*$"])
+def test_names_an_engine_would_misread_are_refused(name):
+    # A NUL panics inside Polars' conversion; '*' and '^…$' are a wildcard and a regular
+    # expression in Polars' column selection (several columns instead of one).
+    import polars as pl
+
+    df = pd.DataFrame({"g": list("abc") * 5, name: np.arange(15.0)})
+    for data in (pl.from_pandas(df), duckdb_relation(df)):
+        with pytest.raises(plotwise.PlotwiseError, match="rename them first"):
+            plotwise.advise(data, "compare", x="g", y=name)
+    plotwise.advise(df, "compare", x="g", y=name)  # pandas reads them as plain names
+
+
+def duckdb_relation(df):
+    import duckdb
+
+    return duckdb.from_df(df)
