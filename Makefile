@@ -34,6 +34,7 @@ test-browser: $(BROWSER_STAMP)
 
 soak: $(STAMP)
 	$(BIN)/python -m pytest -q -s -m soak tests/test_soak.py
+	PLOTWISE_EXAMPLES=20000 $(BIN)/python -m pytest -q tests/engine/test_properties.py
 
 lint: $(STAMP)
 	$(BIN)/ruff check plotwise tests tests_browser tools benchmarks
