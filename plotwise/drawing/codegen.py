@@ -149,6 +149,7 @@ def body_lines(design: Design, profile: Profile, frame: str = "df") -> list[str]
 
 
 HEADER = [
+    "import matplotlib as mpl",
     "import matplotlib.dates as mdates",
     "import matplotlib.pyplot as plt",
     "import numpy as np",

@@ -289,7 +289,7 @@ def _heatmap(c: Ctx) -> list[str]:
                 bins = f"discrete={discrete!r}, bins=({per[0]}, {per[1]})"
             # a Colormap object, not its name: seaborn refuses some names (e.g. 'jet') there
             return [f"sns.histplot(data={c.data}, x={d.x!r}, y={d.y!r}, {bins}, "
-                    f"cmap=plt.get_cmap({c.cmap()}), "
+                    f"cmap=mpl.colormaps[{c.cmap()}], "
                     f"cbar=True, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                     ] + _labels(c, d.x, d.y) + _style(c, None)
         return [f"t = pd.crosstab({c.data}[{d.y!r}], {c.data}[{d.x!r}])",

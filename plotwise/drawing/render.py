@@ -10,7 +10,6 @@ from contextlib import contextmanager
 
 import matplotlib as mpl
 import matplotlib.dates as mdates
-import matplotlib.pyplot as plt
 import numpy as np
 import pandas as pd
 import seaborn as sns
@@ -68,7 +67,7 @@ def draw(design: Design, df, ax: Axes, profile: Profile | None = None) -> Axes:
     if profile is None:
         raise PlotwiseError("this design was not made by plotwise.advise(); call advise() first.")
     code = "\n".join(body_lines(design, profile, "df"))
-    namespace = {"pd": pd, "np": np, "sns": sns, "plt": plt, "mdates": mdates, "ax": ax,
+    namespace = {"pd": pd, "np": np, "sns": sns, "mpl": mpl, "mdates": mdates, "ax": ax,
                  "df": df}
     if profile.source is not None:  # engine data: the queries need the engine's namespace
         namespace.update({k: v for k, v in profile.source.namespace().items() if k != "df"})
