@@ -14,8 +14,10 @@ import numpy as np
 import pandas as pd
 import seaborn as sns
 from matplotlib.axes import Axes
+from matplotlib.category import StrCategoryFormatter
 from matplotlib.figure import Figure
 from matplotlib.text import Text
+from matplotlib.ticker import FixedFormatter
 
 from plotwise.drawing.codegen import body_lines, short
 from plotwise.engine.conditions import drawn_labels
@@ -34,14 +36,36 @@ STYLE_LOCK = threading.RLock()
 
 
 class LiteralFigure(Figure):
-    """A Figure whose text is drawn literally: a '$' in a column name or label is a dollar sign,
-    never the start of a maths expression (tick labels made while drawing included)."""
+    """A plotwise Figure. It renders in plotwise's style whatever the global style is at that
+    moment (tick labels made while rendering take their size from it), and its text is drawn
+    literally: a '$' in a column name or label is a dollar sign, never the start of maths."""
 
     def draw(self, renderer):
-        with STYLE_LOCK, mpl.rc_context({"text.parse_math": False}):
-            for text in self.findobj(Text):
-                text.set_parse_math(False)
+        with plot_style():
+            literal_text(self.axes, self)
             return super().draw(renderer)
+
+
+def literal_text(axes, root) -> None:
+    """Draw the user's strings literally: every Text under ``root`` (labels, titles, legends,
+    annotations) and the tick labels of category axes, whose labels are data values. Numeric
+    axes keep matplotlib's maths (a log axis labels its ticks 10², written as mathtext)."""
+    numeric: set[int] = set()
+    for ax in axes:
+        for axis in (ax.xaxis, ax.yaxis):
+            if isinstance(axis.get_major_formatter(), (StrCategoryFormatter, FixedFormatter)):
+                # make the ticks now (a category axis has a fixed number), so none is made
+                # while drawing with the default maths parsing
+                for tick in axis.get_major_ticks(len(axis.get_majorticklocs())):
+                    tick.label1.set_parse_math(False)
+                    tick.label2.set_parse_math(False)
+            else:
+                numeric |= {id(t) for tick in axis.majorTicks + axis.minorTicks
+                            for t in (tick.label1, tick.label2)}
+                numeric.add(id(axis.offsetText))
+    for text in root.findobj(Text):
+        if id(text) not in numeric:
+            text.set_parse_math(False)
 
 
 @contextmanager
@@ -51,7 +75,6 @@ def plot_style():
             sns.plotting_context("notebook", font_scale=0.75):
         mpl.rcParams["figure.dpi"] = PANEL_DPI
         mpl.rcParams["savefig.dpi"] = PANEL_DPI
-        mpl.rcParams["text.parse_math"] = False  # user strings are text, not maths
         with warnings.catch_warnings():
             # seaborn 0.13.2 with matplotlib 3.11 / pandas 3: deprecation chatter, not user news.
             warnings.filterwarnings("ignore", category=FutureWarning)
@@ -72,8 +95,10 @@ def draw(design: Design, df, ax: Axes, profile: Profile | None = None) -> Axes:
     if profile.source is not None:  # engine data: the queries need the engine's namespace
         namespace.update({k: v for k, v in profile.source.namespace().items() if k != "df"})
     try:
+        fig = ax.figure  # (small multiples replace ``ax`` by a grid of their own)
         with plot_style():
             exec(compile(code, f"<plotwise {design.kind}>", "exec"), namespace)  # noqa: S102
+            literal_text(fig.axes, fig)  # also on the caller's own figure
     except PlotwiseError:
         raise
     except Exception as exc:  # the drawing libraries' errors become one readable message

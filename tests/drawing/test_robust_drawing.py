@@ -62,3 +62,23 @@ def test_two_threads_leave_the_style_as_it_was():
         t.join()
     assert not errors
     assert dict(mpl.rcParams) == before
+
+
+def test_log_axes_keep_their_maths_and_the_global_style_does_not_leak_in():
+    # A log axis labels its ticks with mathtext (10², 10³); only user strings are literal.
+    # A figure rendered later, under another global style, still renders in plotwise's.
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+    from open_data import grunfeld
+
+    a = plotwise.advise(grunfeld(), "compare", x="firm", y="invest")
+    box = a.design("box")
+    assert box.log_scale
+    fig = a.show()
+    with mpl.rc_context({"xtick.labelsize": 20, "ytick.labelsize": 20}):
+        FigureCanvasAgg(fig).draw()
+    ax = fig.axes[[d.kind for d in a.shown()].index("box")]
+    numeric = [t for t in ax.get_xticklabels() if "$" in t.get_text()]
+    assert numeric and all(t.get_parse_math() for t in numeric)
+    categories = ax.get_yticklabels()
+    assert categories and not any(t.get_parse_math() for t in categories)
+    assert {t.get_fontsize() for t in categories} != {20.0}
