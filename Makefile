@@ -43,6 +43,7 @@ lint: $(STAMP)
 bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py
 	MPLBACKEND=Agg $(BIN)/python benchmarks/engines.py
+	MPLBACKEND=Agg $(BIN)/python benchmarks/odd_inputs.py
 
 clean:
 	rm -rf $(VENV) build

@@ -141,6 +141,12 @@ def _category_x(profile: Profile, r: Roles, task: str, given: set) -> None:
         r.x = c.label
         r.notes.append(f"categories: '{c.label}' ({c.distinct} values), the first column with "
                        "a readable number of categories")
+    elif is_time(f[r.x]) and f[r.x].distinct > THRESHOLDS["max_categories"]:
+        raise PlotwiseError(
+            f"'{r.x}' has {f[r.x].distinct:,} time points; {task} needs at most "
+            f"{THRESHOLDS['max_categories']} categories on x. For a measure over time use "
+            f"task='trend'; for periods, bin them first, e.g. "
+            f"df[{r.x!r}].dt.to_period('M').")
     elif not (is_category(f[r.x]) or is_time(f[r.x]) or few_integers(f[r.x])):
         raise PlotwiseError(
             f"'{r.x}' is {f[r.x].level} with {f[r.x].distinct} distinct values; {task} needs "
@@ -271,6 +277,11 @@ def _distribution_roles(profile: Profile, r: Roles, task: str, given: set, df,
     r.x, r.y = var, None
     if f[var].level == "temporal":
         raise PlotwiseError(f"'{var}' holds dates; use task='trend' to see it over time.")
+    if f[var].level in ("nominal", "ordinal") and f[var].distinct > THRESHOLDS["max_categories"]:
+        raise PlotwiseError(
+            f"'{var}' has {f[var].distinct:,} distinct labels (identifier-like); a count per "
+            f"label needs at most {THRESHOLDS['max_categories']}. Look at the most common ones "
+            f"with df[{var!r}].value_counts().head(20), or group them first.")
     return _checked_hue(profile, r)
 
 

@@ -181,3 +181,15 @@ def test_regression_complex_keeps_its_imaginary_part():
     df = pd.DataFrame({"v": np.arange(10.0) + 1j})
     fp = profile_frame(df)["v"]
     assert fp.level != "quantitative" and "complex" in " ".join(fp.evidence)
+
+
+def test_regression_thousands_of_dates_or_labels_are_refused_fast():
+    # compare over 3,000 dates drew 3,000 bars and 3,000 strip calls (about a minute); a
+    # distribution of 3,000 identifier-like labels drew 3,000 bars. Both are refused at once.
+    n = 3000
+    df = pd.DataFrame({"d": pd.date_range("2020-01-01", periods=n, freq="D"),
+                       "h": [f"id{i}" for i in range(n)], "v": np.arange(n, dtype=float)})
+    with pytest.raises(PlotwiseError, match="task='trend'"):
+        plotwise.advise(df, "compare", x="d", y="v")
+    with pytest.raises(PlotwiseError, match="value_counts"):
+        plotwise.advise(df, "distribution", x="h")
