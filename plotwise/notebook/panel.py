@@ -26,6 +26,22 @@ def _escape(text) -> str:
     return html.escape(str(text), quote=True)
 
 
+AUTO = "\x00auto"  # the value of "(auto)" and "any task": plotwise chooses
+
+
+def _known(value, options) -> str:
+    """The request's column as a control value (AUTO when left to plotwise or not listed)."""
+    if value is None:
+        return AUTO
+    label = str(value)
+    return label if any(v == label for _, v in options) else AUTO
+
+
+def _chosen(control):
+    """A control's value as advise() takes it (None for "(auto)" and "any task")."""
+    return None if control.value == AUTO else control.value
+
+
 class AdvicePanel(widgets.VBox):
     """An ipywidgets panel showing one Advice and letting the reader change it."""
 
@@ -36,17 +52,20 @@ class AdvicePanel(widgets.VBox):
         self._frame = advice._input if advice._input is not None else advice._frame()
         self._busy = False
         req = advice.request
-        auto = [("(auto)", None)]
+        # ipywidgets reads a Dropdown value of None as "nothing selected" (a blank control), so
+        # "(auto)" and "any task" carry a sentinel of their own.
+        auto = [("(auto)", AUTO)]
         cols = auto + [(short(c, 30), c) for c in advice.fields]
         w = "190px"
-        self.task = widgets.Dropdown(options=[("any task", None)] + [(t, t) for t in TASKS],
-                                     value=req.get("task"), description="task",
+        self.task = widgets.Dropdown(options=[("any task", AUTO)] + [(t, t) for t in TASKS],
+                                     value=req.get("task") or AUTO, description="task",
                                      layout=widgets.Layout(width=w))
-        self.x = widgets.Dropdown(options=cols, value=req.get("x"), description="x",
+        self.x = widgets.Dropdown(options=cols, value=_known(req.get("x"), cols), description="x",
                                   layout=widgets.Layout(width=w))
-        self.y = widgets.Dropdown(options=cols, value=req.get("y"), description="y",
+        self.y = widgets.Dropdown(options=cols, value=_known(req.get("y"), cols), description="y",
                                   layout=widgets.Layout(width=w))
-        self.hue = widgets.Dropdown(options=cols, value=req.get("hue"), description="hue",
+        self.hue = widgets.Dropdown(options=cols, value=_known(req.get("hue"), cols),
+                                    description="hue",
                                     layout=widgets.Layout(width=w))
         self.message = widgets.HTML()
         self.top_image = widgets.Image(format="png", layout=widgets.Layout(width="100%", max_width="1400px"))
@@ -126,8 +145,8 @@ class AdvicePanel(widgets.VBox):
         if self._busy:
             return
         try:
-            self.advice = advise(self._frame, self.task.value, x=self.x.value, y=self.y.value,
-                                 hue=self.hue.value, top=self.advice.top)
+            self.advice = advise(self._frame, _chosen(self.task), x=_chosen(self.x),
+                                 y=_chosen(self.y), hue=_chosen(self.hue), top=self.advice.top)
         except PlotwiseError as exc:
             shown = self.advice.request
             cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))
