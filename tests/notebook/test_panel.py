@@ -86,3 +86,13 @@ def test_panel_on_a_parquet_file_keeps_reading_the_file(tmp_path):
     assert p.advice.engine == "DuckDB" and p.advice.task == "trend"
     assert f"duckdb.read_parquet({str(path)!r})" in p.code.value
     assert plt.get_fignums() == []
+
+
+def test_controls_left_to_plotwise_show_auto_not_blank():
+    # ipywidgets shows a Dropdown whose value is None as an empty control; the panel's
+    # "(auto)" and "any task" entries must be selected instead, and mean "plotwise chooses".
+    p = AdvicePanel(plotwise.advise(grunfeld(), None, x="firm"), "grunfeld")
+    assert (p.task.label, p.x.label, p.y.label, p.hue.label) == ("any task", "firm", "(auto)",
+                                                                  "(auto)")
+    p.task.value = "compare"
+    assert p.advice.task == "compare" and p.advice.request.get("y") is None
