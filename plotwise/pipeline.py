@@ -16,6 +16,7 @@ from plotwise.engine.candidates import candidates
 from plotwise.engine.checking import run_checks
 from plotwise.engine.design import Design, Roles
 from plotwise.engine.hazards import Hazard, HazardContext, by_severity
+from plotwise.engine.meaning import measure_reason
 from plotwise.engine.plan import histogram_bins, mark_single_values, plan_design
 from plotwise.engine.profile import Profile, profile_frame
 from plotwise.engine.roles import check_roles, choose_roles
@@ -124,7 +125,9 @@ def advise_task(df, profile: Profile, task: str, req: Request, exact=None) -> Ta
         extra = plan_design(d, profile, stats, df=df, working=working, bins=bins, exact=exact,
                             palette=req.palette, cmap_name=req.cmap_name)
         score_design(d, profile, stats)
-        d.reasons[1:1] = extra
+        why = measure_reason(profile.fields[d.y], d.stat, req.agg) if d.y in profile.fields \
+            else None
+        d.reasons[1:1] = extra + ([why] if why else [])
         if roles.notes:
             d.reasons.append("columns chosen by plotwise: " + "; ".join(roles.notes))
     ctx = HazardContext(df=df, profile=profile, task=task, x=roles.x, y=roles.y, hue=roles.hue,

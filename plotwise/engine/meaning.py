@@ -30,6 +30,20 @@ Measure = Literal["additive", "non-additive", "unknown", "identifier", "flag", "
 # within 0–100 (common practice).
 PERCENT_PREFIXES = ("per", "pct", "pc")
 
+# Words that start like a percentage name but are not one (common practice).
+NOT_PERCENT_WORDS = ("period", "periods", "person", "persons", "personal", "people", "perimeter",
+                     "performance", "permit", "permits", "perch", "pcs")
+
+
+def _percent_word(token: str) -> bool:
+    """'pct', or a word glued to a percentage prefix ('percollege', 'perblack', 'pctwhite');
+    'per' alone means 'for each' (miles per gallon) and is not one."""
+    if token == "pct":
+        return True
+    return (token.startswith(PERCENT_PREFIXES) and len(token) >= 5
+            and token not in NOT_PERCENT_WORDS)
+
+
 # Columns whose role as a measure is ruled out.
 NOT_MEASURES = ("identifier", "flag", "constant")
 
@@ -86,7 +100,7 @@ def _data_evidence(fp: FieldProfile, uniq: np.ndarray) -> str | None:
     share_name = name_says(fp.label, SHARE_NAME_HINTS)
     if share_name and lo >= 0 and hi <= 100:
         return f"values within 0–{'1' if hi <= 1 else '100'} and the name says '{share_name}': a share"
-    per = next((t for t in name_tokens(fp.label) if t.startswith(PERCENT_PREFIXES)), None)
+    per = next((t for t in name_tokens(fp.label) if _percent_word(t)), None)
     if per and lo >= 0 and hi <= 100:
         return f"values within 0–100 and the name '{per}' reads as a percentage"
     if lo >= 0 and hi <= 1 and not fp.is_integer:
@@ -107,3 +121,17 @@ def adds_up(fp: FieldProfile | None) -> bool:
 
 def is_non_additive(fp: FieldProfile | None) -> bool:
     return fp is not None and fp.measure in ("non-additive", "flag")
+
+
+def measure_reason(fp: FieldProfile, stat: str, agg: str | None) -> str | None:
+    """Why a design draws the totals or the averages of its measure, in one sentence."""
+    if stat not in ("sum", "mean") or fp.measure is None:
+        return None
+    if agg:
+        return f"{'totals' if stat == 'sum' else 'averages'} of '{fp.label}': as asked (agg='{agg}')"
+    if stat == "sum":
+        return f"totals of '{fp.label}': it adds up ({fp.measure_why})"
+    why = fp.measure_why if fp.measure != "unknown" else ("whether its totals mean something is "
+                                                          "not known, so averages (say agg='sum' "
+                                                          "if they do)")
+    return f"averages of '{fp.label}', not totals: {why}"

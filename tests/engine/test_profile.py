@@ -96,3 +96,22 @@ def test_profile_does_not_change_frame():
 def test_bad_frames(bad, words):
     with pytest.raises(PlotwiseError, match=words):
         profile_frame(bad)
+
+
+def test_reasons_say_why_totals_or_averages():
+    # The default statistic is explained: totals for a measure that adds up, averages for one
+    # that does not (with the evidence), and the caller's agg= named as such.
+    import sys
+    from pathlib import Path
+
+    sys.path.insert(0, str(Path(__file__).resolve().parents[1] / "judgement"))
+    import judgement_data as data
+
+    import plotwise
+
+    mpg = plotwise.advise(data.cars(), "compare", x="Origin", y="Miles_per_Gallon")
+    assert any(r.startswith("averages of 'Miles_per_Gallon', not totals") for r in mpg.designs[0].reasons)
+    energy = plotwise.advise(data.electricity(), "compare", x="source", y="net_generation")
+    assert any(r.startswith("totals of 'net_generation': it adds up") for r in energy.designs[0].reasons)
+    asked = plotwise.advise(data.cars(), "compare", x="Origin", y="Miles_per_Gallon", agg="sum")
+    assert any("as asked (agg='sum')" in r for r in asked.designs[0].reasons)
