@@ -193,3 +193,21 @@ def test_colour_scheme_follows_data():
     heat = plotwise.advise(df, "compare", x="unit", y="profit", hue="q").design("heatmap")
     assert any("diverging" in r and "centred on zero" in r for r in heat.reasons)
     assert "center=0" in heat.code()
+
+
+def test_headline_for_equal_groups_says_so():
+    # It read "'a' has the highest total … 1.0× that of 'a', the lowest".
+    same = pd.DataFrame({"shop": ["a", "b", "c"], "sales": [5.0, 5.0, 5.0]})
+    assert plotwise.advise(same, "compare", x="shop", y="sales").headline == \
+        "All 3 groups have the same 'sales' (5)."
+
+
+def test_infinite_values_leave_fits_and_modes_alone():
+    # ±inf once reached the KDE (ValueError) and the regression checks (SVD did not converge).
+    rng = np.random.default_rng(2)
+    x = rng.normal(size=200)
+    df = pd.DataFrame({"x": x, "y": 2 * x + rng.normal(size=200)})
+    df.loc[[3, 50], "y"] = [np.inf, -np.inf]
+    a = plotwise.advise(df, "correlate", x="x", y="y")
+    assert a.fields["y"].infinite == 2
+    plotwise.advise(df, "distribution", x="y").show()
