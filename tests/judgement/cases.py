@@ -63,7 +63,7 @@ CASES = [
          dict(task="proportion", x="size_band", y="PERMINTE"), BARS,
          "district percentages do not add up to a whole: averages, no shares (common practice)",
          never=NO_SHARES, stat="mean"),
-    case("sleep-like-temperature-averaged", data.seattle,
+    case("temperature-averaged-by-weather", data.seattle,
          dict(task="compare", x="weather", y="temp_max"), BARS | {"box"},
          "temperature is an interval scale: averaged; bars from zero mean nothing, so dots or "
          "boxes (Stevens 1946 levels of measurement)", stat="mean", never={"pie"}),
