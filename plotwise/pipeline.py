@@ -231,6 +231,13 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     matplotlib Colormap) for lightness encodings. Both are drawn and checked (colour-vision
     deficiency, lightness).
     """
+    # Huge or infinite values overflow in intermediate sums; the engine handles the non-finite
+    # results itself, so numpy's RuntimeWarnings would only be noise in the user's notebook.
+    with np.errstate(all="ignore"):
+        return _advise(df, task, x, y, hue, agg, value_range, palette, cmap, top)
+
+
+def _advise(df, task, x, y, hue, agg, value_range, palette, cmap, top) -> Advice:
     req = check_request(task, x, y, hue, agg, value_range, palette, cmap, top)
     profile, frame, exact, src = open_data(df)
     check_roles(profile, x, y, hue)

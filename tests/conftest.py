@@ -22,13 +22,33 @@ def rng():
     return np.random.default_rng(12345)
 
 
-def pytest_terminal_summary(terminalreporter):
-    """Report how many frames the property test generated (it must be at least 3,000 in CI)."""
+FROM_WORKERS: dict[str, int] = {}  # property-test counts sent back by pytest-xdist workers
+
+
+def _property_counts() -> dict[str, int]:
     import sys
 
     mod = sys.modules.get("test_properties")
-    if mod is not None and mod.COUNT["frames"]:
-        c = mod.COUNT
+    return dict(mod.COUNT) if mod is not None else {}
+
+
+def pytest_sessionfinish(session):
+    if hasattr(session.config, "workeroutput"):  # a pytest-xdist worker: report to the controller
+        session.config.workeroutput["property_counts"] = _property_counts()
+
+
+@pytest.hookimpl(optionalhook=True)
+def pytest_testnodedown(node, error):
+    for k, v in getattr(node, "workeroutput", {}).get("property_counts", {}).items():
+        FROM_WORKERS[k] = FROM_WORKERS.get(k, 0) + v
+
+
+def pytest_terminal_summary(terminalreporter):
+    """Report how many frames the property test generated (it must be at least 3,000 in CI)."""
+    c = dict(FROM_WORKERS)
+    for k, v in _property_counts().items():
+        c[k] = c.get(k, 0) + v
+    if c.get("frames"):
         terminalreporter.write_line(
             f"property test: {c['frames']} generated frames ({c['advice']} advised, "
             f"{c['errors']} clear PlotwiseErrors; {c['full']} drawn, displayed and their code "

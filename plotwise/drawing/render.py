@@ -75,7 +75,7 @@ def plot_style():
             sns.plotting_context("notebook", font_scale=0.75):
         mpl.rcParams["figure.dpi"] = PANEL_DPI
         mpl.rcParams["savefig.dpi"] = PANEL_DPI
-        with warnings.catch_warnings():
+        with warnings.catch_warnings(), np.errstate(all="ignore"):
             # seaborn 0.13.2 with matplotlib 3.11 / pandas 3: deprecation chatter, not user news.
             warnings.filterwarnings("ignore", category=FutureWarning)
             warnings.filterwarnings("ignore", category=DeprecationWarning)

@@ -24,6 +24,8 @@ def conversion(f: FieldProfile) -> str:
                 '.astype("string")')
     if f.as_text:
         return '{}.astype("string")'  # mixed Python objects: compared as their text
+    if f.dtype.startswith("period"):  # pandas Periods: their start time, drawable on a date axis
+        return "{}.dt.to_timestamp()"
     if f.parse_dates:
         return 'pd.to_datetime({}, format="ISO8601", errors="coerce")'
     if f.is_timedelta:

@@ -4,6 +4,7 @@ matplotlib style changed — not even with two threads drawing at once."""
 import threading
 
 import matplotlib as mpl
+import matplotlib.pyplot as plt
 import numpy as np
 import pandas as pd
 import pytest
@@ -82,3 +83,20 @@ def test_log_axes_keep_their_maths_and_the_global_style_does_not_leak_in():
     categories = ax.get_yticklabels()
     assert categories and not any(t.get_parse_math() for t in categories)
     assert {t.get_fontsize() for t in categories} != {20.0}
+
+
+def test_period_time_axis_snippets_run():
+    # Regression: a pandas Period column reached matplotlib's float() in the line and area
+    # snippets (TypeError); periods are now drawn at their start time.
+    df = pd.DataFrame({"month": pd.period_range("2020-01", periods=36, freq="M"),
+                       "sales": np.arange(36, dtype=float) % 7 + 10})
+    advice = plotwise.advise(df, "trend", x="month", y="sales")
+    assert advice.best.kind == "line"
+    for d in advice.shown():
+        namespace = {"df": df}
+        exec(compile(d.code("df"), "<snippet>", "exec"), namespace)  # noqa: S102
+        ax = namespace["ax"]
+        assert ax.get_lines() or ax.patches or ax.collections
+        plt.close("all")
+    pd.testing.assert_series_equal(df["month"], pd.Series(pd.period_range(
+        "2020-01", periods=36, freq="M"), name="month"))
