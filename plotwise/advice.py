@@ -11,6 +11,7 @@ import pandas as pd
 from plotwise.engine.design import Design
 from plotwise.engine.hazards import Hazard
 from plotwise.engine.profile import FieldProfile, Profile
+from plotwise.engine.surprises import Surprise
 from plotwise.errors import PlotwiseError
 
 
@@ -26,6 +27,7 @@ class Advice:
     top: int = 3
     request: dict = field(default_factory=dict)  # the arguments advise() was called with
     headline: str | None = None  # one sentence, when a single number says it better than a chart
+    surprises: list[Surprise] = field(default_factory=list)  # what deserves a second look
     _df: object | None = field(default=None, repr=False, compare=False)  # pandas or engine data
     _input: object | None = field(default=None, repr=False, compare=False)  # what advise() got
 
@@ -92,6 +94,9 @@ class Advice:
 
     def hazard_codes(self) -> list[str]:
         return [h.code for h in self.hazards]
+
+    def surprise_codes(self) -> list[str]:
+        return [s.code for s in self.surprises]
 
     def _pick(self, which) -> Design:
         if isinstance(which, Design):

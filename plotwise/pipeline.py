@@ -22,6 +22,7 @@ from plotwise.engine.profile import Profile, profile_frame
 from plotwise.engine.roles import check_roles, choose_roles
 from plotwise.engine.scoring import STAT_WORDS, rank, score_design
 from plotwise.engine.stats import design_stats
+from plotwise.engine.surprises import Question, find_surprises
 from plotwise.engine.vocab import AGGS, TASKS
 from plotwise.engine.working import working_frame
 from plotwise.errors import PlotwiseError
@@ -265,11 +266,16 @@ def _advise(df, task, x, y, hue, agg, value_range, palette, cmap, top) -> Advice
         favour_richer(designs)
     ranked = rank(designs)
     shown = ([d for d in ranked if d.expressive] or ranked[:1])[:top]
+    surprises = [] if src is not None else find_surprises(frame, profile, [
+        Question(d.task, d.x, d.y, d.hue or d.facet, d.stat) for d in shown])
     if src is not None:
         notes.append(f"{src.engine_name} computed, over all {profile.rows:,} rows of the "
                      f"{src.kind}: " + "; ".join(src.computed) + ". Checks on single points "
-                     "(overplotting, fits, modes) used a seeded sample.")
+                     "(overplotting, fits, modes) used a seeded sample. Surprises (outliers, "
+                     "misfit labels, repeats) are looked for in in-memory pandas frames only: "
+                     "bring the columns in question into pandas for them.")
     return Advice(task=req.task, profile=profile, designs=ranked,
                   hazards=merged_hazards(wide, shown), notes=notes, top=top,
                   request=req.as_dict(), headline=headlines.get(req.task or shown[0].task),
+                  surprises=surprises,
                   _df=frame, _input=df)

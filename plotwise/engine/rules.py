@@ -235,6 +235,52 @@ THRESHOLDS: dict[str, Any] = {
     "bunched_spread": 0.1,
 }
 
+# --------------------------------------------------------------------------------------------
+# Surprises: what in the data deserves a second look (plotwise.engine.surprises)
+# --------------------------------------------------------------------------------------------
+SURPRISE_THRESHOLDS: dict[str, Any] = {
+    # label-misfit: an item's k nearest neighbours on standardised axes (k about 5–7 is common
+    # practice); flagged when at least this many of them carry another label.
+    "misfit_k": 6,
+    "misfit_others": 5,
+    # ...and only while the flagged items are few: beyond this share of the items the groups
+    # simply overlap, which the chart shows by itself (common practice).
+    "misfit_max_share": 0.05,
+    # group-outlier: modified z-score 0.6745·(x − median)/MAD above 3.5 (Iglewicz, B. &
+    # Hoaglin, D. C. 1993, How to Detect and Handle Outliers, ASQC); groups of at least 5 values.
+    "modified_z": 3.5,
+    "modified_z_constant": 0.6745,
+    "outlier_min_group": 5,
+    "outlier_max_share": 0.05,  # more than this share far out: heavy tails, not a surprise
+    # level-shift: one change in mean found by least squares (the first step of binary
+    # segmentation), kept when its BIC beats both a constant and a straight line by more than 10
+    # ("very strong" evidence: Kass, R. E. & Raftery, A. E. 1995, JASA 90:773–795), with the
+    # sample size discounted for lag-1 autocorrelation n·(1−φ)/(1+φ) so that a random walk's
+    # wander is not read as a step (common practice); at least 12 time points, each side at
+    # least 5% of them and 3.
+    "shift_bic": 10.0,
+    "shift_min_points": 12,
+    # impossible-value: codes that stand for "missing" in many files (common practice), flagged
+    # only when they lie far outside the other values; dates that stand for "unknown".
+    "sentinels": (-99999, -9999, -999, -99, 999, 9999, 99999),
+    "sentinel_dates": ("1900-01-01", "1970-01-01", "1899-12-30"),
+    # duplicate-rows: whole-row repeats are reported only when the columns have so many
+    # combinations (product of distinct counts ≥ this × rows²) that a chance repeat is unlikely;
+    # one row per key is "expected" when at least this share of keys have exactly one.
+    "duplicate_combinations": 10,
+    "one_per_key": 0.9,
+    # unit-mix: two density peaks of log10(values) this close to a whole number (1–3) of decades
+    # apart, each holding at least this share of the values (common practice).
+    "unit_decades_tolerance": 0.2,
+    "unit_min_share": 0.05,
+    "unit_min_values": 50,
+}
+# Names of measures that cannot be negative (common practice).
+NON_NEGATIVE_NAME_HINTS = ("count", "quantity", "units", "passengers", "visits", "orders",
+                           "trips", "tickets", "num", "number", "population", "deaths", "cases",
+                           "births", "age", "weight", "height", "length", "width", "price",
+                           "precipitation", "rainfall", "sold", "arrests", "crimes", "duration")
+
 # Marker drawn by scatter designs: seaborn's default marker area, in points² (from memory: 36 in
 # seaborn 0.13 via rcParams lines.markersize 6 → 6² = 36).
 SCATTER_MARKER_AREA_PT2 = 36.0
