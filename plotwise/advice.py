@@ -58,7 +58,7 @@ class Advice:
         """A matplotlib Figure with the top designs side by side (not shown through pyplot)."""
         from plotwise.drawing.render import draw_row
 
-        return draw_row(self.shown(top), self._frame())
+        return draw_row(self.shown(top), self._frame(), surprises=self.surprises)
 
     def draw(self, which: int | str | Design = 0, ax=None):
         """Draw one design (index, kind or Design) on ``ax``; a new Figure when ax is None."""

@@ -266,14 +266,19 @@ def _advise(df, task, x, y, hue, agg, value_range, palette, cmap, top) -> Advice
         favour_richer(designs)
     ranked = rank(designs)
     shown = ([d for d in ranked if d.expressive] or ranked[:1])[:top]
-    surprises = [] if src is not None else find_surprises(frame, profile, [
-        Question(d.task, d.x, d.y, d.hue or d.facet, d.stat) for d in shown])
+    # Surprises name rows: on engine data only when every row came back (rows then count from
+    # 0 in the engine's order, which is the file's order for DuckDB scans).
+    whole = src is None or profile.sample_rows is None
+    surprises = find_surprises(frame, profile, [
+        Question(d.task, d.x, d.y, d.hue or d.facet, d.stat) for d in shown]) if whole else []
     if src is not None:
         notes.append(f"{src.engine_name} computed, over all {profile.rows:,} rows of the "
                      f"{src.kind}: " + "; ".join(src.computed) + ". Checks on single points "
-                     "(overplotting, fits, modes) used a seeded sample. Surprises (outliers, "
-                     "misfit labels, repeats) are looked for in in-memory pandas frames only: "
-                     "bring the columns in question into pandas for them.")
+                     "(overplotting, fits, modes) used a seeded sample." + (
+                         " Rows named in surprises count from 0 in the engine's row order."
+                         if whole else " Surprises (outliers, misfit labels, repeats) are "
+                         "looked for only when all rows fit in memory: bring the columns in "
+                         "question into pandas for them."))
     return Advice(task=req.task, profile=profile, designs=ranked,
                   hazards=merged_hazards(wide, shown), notes=notes, top=top,
                   request=req.as_dict(), headline=headlines.get(req.task or shown[0].task),

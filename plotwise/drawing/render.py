@@ -20,10 +20,12 @@ from matplotlib.text import Text
 from matplotlib.ticker import FixedFormatter
 
 from plotwise.drawing.codegen import body_lines, short
+from plotwise.drawing.marks import mark_surprises
 from plotwise.engine.conditions import drawn_labels
 from plotwise.engine.design import Design
 from plotwise.engine.profile import Profile
 from plotwise.engine.rules import LABEL_HEIGHT_IN, PANEL_DPI, PANEL_SIZE_IN
+from plotwise.engine.surprises import Surprise
 from plotwise.errors import PlotwiseError
 
 PANEL_WIDTH_IN, PANEL_HEIGHT_IN = PANEL_SIZE_IN  # one panel geometry: drawing and overplotting
@@ -42,7 +44,8 @@ class LiteralFigure(Figure):
 
     def draw(self, renderer):
         with plot_style():
-            literal_text(self.axes, self)
+            # every Axes, also those of subfigures (Figure.axes lists only its own)
+            literal_text(self.findobj(Axes), self)
             return super().draw(renderer)
 
 
@@ -50,7 +53,7 @@ def literal_text(axes, root) -> None:
     """Draw the user's strings literally: every Text under ``root`` (labels, titles, legends,
     annotations) and the tick labels of category axes, whose labels are data values. Numeric
     axes keep matplotlib's maths (a log axis labels its ticks 10², written as mathtext)."""
-    numeric: set[int] = set()
+    numeric = []
     for ax in axes:
         for axis in (ax.xaxis, ax.yaxis):
             if isinstance(axis.get_major_formatter(), (StrCategoryFormatter, FixedFormatter)):
@@ -60,12 +63,16 @@ def literal_text(axes, root) -> None:
                     tick.label1.set_parse_math(False)
                     tick.label2.set_parse_math(False)
             else:
-                numeric |= {id(t) for tick in axis.majorTicks + axis.minorTicks
-                            for t in (tick.label1, tick.label2)}
-                numeric.add(id(axis.offsetText))
+                numeric.append(axis)
     for text in root.findobj(Text):
-        if id(text) not in numeric:
-            text.set_parse_math(False)
+        text.set_parse_math(False)
+    for axis in numeric:
+        # the ticks for the current locations, made now (minor ticks of a log axis too), keep
+        # the maths their formatter writes
+        for tick in axis.get_major_ticks() + axis.get_minor_ticks():
+            tick.label1.set_parse_math(True)
+            tick.label2.set_parse_math(True)
+        axis.offsetText.set_parse_math(True)
 
 
 @contextmanager
@@ -122,8 +129,9 @@ def panel_title(rank: int, design: Design) -> str:
 
 
 def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = None,
-             notes: list[str] | None = None) -> Figure:
-    """A Figure with the given designs side by side, each titled with rank, kind and score."""
+             notes: list[str] | None = None, surprises: list[Surprise] | None = None) -> Figure:
+    """A Figure with the given designs side by side, each titled with rank, kind and score;
+    ``surprises`` are marked where a panel's axes can place them."""
     if not designs:
         raise PlotwiseError("there are no designs to draw.")
     ranks = ranks or list(range(1, len(designs) + 1))
@@ -134,6 +142,8 @@ def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = 
         for i, (sub, design) in enumerate(zip(subs, designs)):
             ax = sub.subplots()
             draw(design, df, ax)
+            if surprises:
+                mark_surprises(ax, design, surprises)
             sub.suptitle(panel_title(ranks[i], design), fontsize=10, fontweight="bold")
             if notes and i < len(notes) and notes[i]:
                 sub.supxlabel(notes[i], fontsize=7, color="#555555")

@@ -47,6 +47,12 @@ def advice_text(advice: Advice, limit: int | None = None) -> str:
             lines.append(f"      fix: {h.fix}")
     else:
         lines.append("Hazards: none found.")
+    if advice.surprises:
+        lines.append("")
+        lines.append("Worth a second look (surprises in the data):")
+        for x in advice.surprises:
+            lines.append(f" {SEVERITY_MARK[x.severity]} {x.code}: {x.message}")
+            lines.append(f"      check: {x.check}")
     return "\n".join(lines)
 
 
@@ -86,6 +92,21 @@ def hazards_html(hazards) -> str:
     return f"<table style='border-collapse:collapse'><tr>{head}</tr>{rows}</table>"
 
 
+def surprises_html(surprises) -> str:
+    """What in the data deserves a second look, as a table (inline styles, like the hazards)."""
+    if not surprises:
+        return "<p class='pw-none'>Nothing unexpected found.</p>"
+    rows = "".join(
+        f"<tr class='pw-surprise' data-code='{_e(x.code)}'>"
+        f"<td {CELL}><b style='color:{SEVERITY_COLOUR[x.severity]}'>{_e(x.severity)}</b></td>"
+        f"<td {CELL}><code>{_e(x.code)}</code></td><td {CELL}>{_e(x.message)}</td>"
+        f"<td {CELL}>{_e(x.check)}</td></tr>"
+        for x in surprises)
+    head = "".join(f"<th {CELL}>{t}</th>" for t in ("severity", "code", "what was found",
+                                                     "what to check"))
+    return f"<table style='border-collapse:collapse'><tr>{head}</tr>{rows}</table>"
+
+
 def profile_html(advice: Advice) -> str:
     rows = "".join(
         f"<tr><td>{_e(short(f.label, 60))}</td><td>{_e(f.level)}</td><td>{f.distinct}</td>"
@@ -109,6 +130,8 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
         b64 = base64.b64encode(png).decode("ascii")
         parts.append(f"<img alt='top designs side by side' src='data:image/png;base64,{b64}'/>")
     parts.append("<h4>Hazards</h4>" + hazards_html(advice.hazards))
+    if advice.surprises:
+        parts.append("<h4>Worth a second look</h4>" + surprises_html(advice.surprises))
     parts.append("<h4>Why the top designs rank where they do</h4>")
     for i, d in enumerate(advice.shown(), 1):
         items = "".join(f"<li>{_e(r)}</li>" for r in d.reasons[1:])

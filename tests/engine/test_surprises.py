@@ -246,10 +246,19 @@ def test_every_surprise_code_has_a_test_here():
         assert f'"{c}"' in source, c
 
 
-def test_engine_data_advice_says_surprises_were_not_looked_for(tmp_path):
+def test_engine_data_small_enough_gets_surprises_and_large_says_why_not(tmp_path, monkeypatch):
     import duckdb
 
+    from plotwise.engine.rules import THRESHOLDS
+
     df = shops(True, np.random.default_rng(1))
-    rel = duckdb.connect().from_df(df)
-    a = plotwise.advise(rel, "compare", x="shop", y="basket")
+    path = tmp_path / "baskets.parquet"
+    df.to_parquet(path)
+    a = plotwise.advise(str(path), "compare", x="shop", y="basket")
+    in_memory = plotwise.advise(df, "compare", x="shop", y="basket")
+    assert 45 in only(a, "group-outlier").rows  # row numbers in the file's order
+    assert a.surprises == in_memory.surprises
+    monkeypatch.setitem(THRESHOLDS, "profile_sample", 50)  # a "large" table: only a sample
+    monkeypatch.setitem(THRESHOLDS, "draw_sample", 50)
+    a = plotwise.advise(duckdb.connect().from_df(df), "compare", x="shop", y="basket")
     assert a.surprises == [] and any("surprises" in n.lower() for n in a.notes)
