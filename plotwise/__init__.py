@@ -3,10 +3,13 @@
     advice = plotwise.advise(df, "compare", x="region", y="revenue")
     advice.designs   # ranked designs, best first
     advice.hazards   # what could mislead, with fixes
+    advice.surprises # what in the data deserves a second look
     advice.show()    # matplotlib Figure with the top three side by side
+    advice.why_not("pie"), advice.sheet()
 """
 
 from plotwise.advice import Advice
+from plotwise.alternatives import WhyNot
 from plotwise.drawing import codegen as _codegen  # noqa: F401  (gives Design.code() its writer)
 from plotwise.engine.checking import hazard_codes
 from plotwise.engine.design import Design, DesignOptions
@@ -14,6 +17,7 @@ from plotwise.engine.hazards import HAZARD_CHECKS, Hazard
 from plotwise.engine.kinds import KINDS, REGISTRY, ChartKind
 from plotwise.engine.profile import FieldProfile, Profile, profile_frame
 from plotwise.engine.stats import DesignStats
+from plotwise.engine.surprises import SURPRISE_CHECKS, Mark, Surprise
 from plotwise.engine.vocab import TASKS
 from plotwise.errors import PlotwiseError
 from plotwise.pipeline import advise
@@ -58,7 +62,8 @@ def unload_ipython_extension(ipython):
 
 __all__ = [
     "Advice", "AuditReport", "ChartKind", "Design", "DesignOptions", "DesignStats",
-    "FieldProfile", "HAZARD_CHECKS", "Hazard", "KINDS", "PlotwiseError", "Profile", "REGISTRY",
-    "TASKS", "advise", "audit", "hazard_codes", "last", "load_ipython_extension",
+    "FieldProfile", "HAZARD_CHECKS", "Hazard", "KINDS", "Mark", "PlotwiseError", "Profile",
+    "REGISTRY", "SURPRISE_CHECKS", "Surprise", "TASKS", "WhyNot", "advise", "audit",
+    "hazard_codes", "last", "load_ipython_extension",
     "profile_frame", "unload_ipython_extension", "__version__",
 ]

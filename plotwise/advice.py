@@ -79,6 +79,23 @@ class Advice:
         draw(d, self._frame(), ax)
         return ax
 
+    def why_not(self, kind: str):
+        """Why plotwise did not recommend a ``kind`` here: whether it can show these columns,
+        its rank and score parts beside the top design's, its hazards, the better choice. The
+        answer's ``draw()`` draws it, titled as not recommended, when it states nothing false."""
+        from plotwise.alternatives import why_not
+
+        return why_not(self, kind)
+
+    def sheet(self):
+        """Every expressive design as a small panel in one Figure, best first (at most 12; the
+        rest are counted below)."""
+        from plotwise.alternatives import sheet_designs
+        from plotwise.drawing.render import draw_sheet
+
+        designs, ranks, more = sheet_designs(self)
+        return draw_sheet(designs, self._frame(), ranks, more)
+
     def code(self, which: int | str | Design = 0, name: str = "df") -> str:
         return self._pick(which).code(name)
 

@@ -129,7 +129,8 @@ def panel_title(rank: int, design: Design) -> str:
 
 
 def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = None,
-             notes: list[str] | None = None, surprises: list[Surprise] | None = None) -> Figure:
+             notes: list[str] | None = None, surprises: list[Surprise] | None = None,
+             prefix: str = "") -> Figure:
     """A Figure with the given designs side by side, each titled with rank, kind and score;
     ``surprises`` are marked where a panel's axes can place them."""
     if not designs:
@@ -144,7 +145,44 @@ def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = 
             draw(design, df, ax)
             if surprises:
                 mark_surprises(ax, design, surprises)
-            sub.suptitle(panel_title(ranks[i], design), fontsize=10, fontweight="bold")
+            sub.suptitle(prefix + panel_title(ranks[i], design), fontsize=10,
+                         fontweight="bold")
             if notes and i < len(notes) and notes[i]:
                 sub.supxlabel(notes[i], fontsize=7, color="#555555")
+    return fig
+
+
+SHEET_COLUMNS = 4
+SHEET_PANEL_IN = (3.6, 3.0)  # a thumbnail panel of the sheet: small, still readable
+
+
+def draw_sheet(designs: list[Design], df, ranks: list[int], more: int = 0) -> Figure:
+    """Every given design as a small panel in one Figure, ranked; ``more`` designs left out are
+    counted below the panels."""
+    if not designs:
+        raise PlotwiseError("there are no designs to draw.")
+    cols = min(SHEET_COLUMNS, len(designs))
+    rows = -(-len(designs) // cols)
+    w, h = SHEET_PANEL_IN
+    with plot_style():
+        fig = LiteralFigure(figsize=(w * cols, h * rows + (0.3 if more else 0)),
+                            layout="constrained")
+        subs = fig.subfigures(rows, cols, squeeze=False, wspace=0.02, hspace=0.02)
+        for i, sub in enumerate(subs.flat):
+            if i >= len(designs):
+                continue
+            d = designs[i]
+            ax = sub.subplots()
+            try:
+                draw(d, df, ax)
+            except PlotwiseError as exc:  # one design that cannot be drawn does not sink the sheet
+                ax.clear()
+                ax.set_axis_off()
+                ax.text(0.5, 0.5, short(str(exc), 80), ha="center", va="center", wrap=True,
+                        fontsize=7, transform=ax.transAxes, parse_math=False)
+            sub.suptitle(f"{ranks[i]} · {short(d.title, 34)} · {d.score:.2f}", fontsize=9,
+                         fontweight="bold")
+        if more:
+            fig.supxlabel(f"and {more} more expressive design{'s' if more > 1 else ''} "
+                          "(advice.table() lists them all)", fontsize=8, color="#555555")
     return fig

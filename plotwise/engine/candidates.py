@@ -62,6 +62,8 @@ def _with_facets(profile: Profile, designs: list[Design], hue: str | None) -> li
     n = profile.fields[hue].distinct
     if n <= THRESHOLDS["hues_warn"] or n > THRESHOLDS["max_facets"]:
         return designs
+    if profile.rows < THRESHOLDS["facet_min_rows"] * n:  # panels of a mark or two each
+        return designs
     extra = [_small_multiples_of(d, hue) for d in designs
              if d.hue == hue and not d.options.time_as_categories and kind_record(d.kind).facets]
     return designs + extra

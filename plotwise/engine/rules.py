@@ -204,6 +204,9 @@ THRESHOLDS: dict[str, Any] = {
     "engine_max_bins": 200,
     # Small multiples: at most this many panels (common practice).
     "max_facets": 12,
+    # ...each panel holding this many rows on average: a panel of one or two marks shows nothing
+    # a colour could not (common practice).
+    "facet_min_rows": 3,
     # Two palette colours closer than this CAM02-UCS ΔE, for normal or simulated colour-vision
     # deficient sight, are hard to tell apart as series (common practice; Okabe & Ito's palette
     # stays above 11 under all three simulations at full severity, tab10 falls to 1.6).

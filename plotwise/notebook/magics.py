@@ -5,6 +5,7 @@ the result (a widget panel where widgets work, the static advice otherwise)."""
 from __future__ import annotations
 
 import ast
+import base64
 import sys
 
 import pandas as pd
@@ -144,17 +145,21 @@ class PlotwiseMagics(Magics):
     @magic_arguments("plotwise")
     @argument("words", nargs="*", help="TASK (compare, trend, proportion, correlate, "
               "distribution; optional) then DF_NAME; or 'code N' to put design N's code in the "
-              "next cell")
+              "next cell; 'why KIND' to ask why a kind was not recommended; 'sheet' to draw "
+              "every expressive design small")
     @advice_options
     @line_magic("plotwise")
     def plotwise_line(self, line: str = ""):
         """Advise on a DataFrame by name: %plotwise [TASK] DF_NAME [--x COL] [--y COL]
         [--hue COL] [--top N] [--static]. %plotwise code N puts the code of design N (1 = best)
-        from the last advice into the next cell."""
+        from the last advice into the next cell; %plotwise why KIND answers why the last advice
+        did not recommend KIND; %plotwise sheet draws every expressive design of it small."""
         args = parse_argstring(self.plotwise_line, line)
         words = list(args.words)
         if words and words[0] == "code":
             return self._code(words[1:])
+        if words and words[0] in ("why", "sheet"):
+            return self._alternatives(words[0], words[1:])
         task, rest = split_positionals(words)
         ns = self.shell.user_ns
         if len(rest) == 2 and task is None:
@@ -264,6 +269,34 @@ class PlotwiseMagics(Magics):
         finally:
             for fig in figures:  # shown above; closing keeps the inline backend from repeating them
                 plt.close(fig)
+        return None
+
+    def _alternatives(self, what: str, words: list[str]):
+        from IPython.display import display
+
+        from plotwise.engine.kinds import REGISTRY
+
+        advice = last()
+        if advice is None:
+            say_error("no advice yet in this session; run %plotwise or %%plotwise first.")
+            return None
+        if what == "sheet":
+            if words:
+                raise UsageError("usage: %plotwise sheet (draws the last advice's designs)")
+            from plotwise.notebook.display import figure_png
+
+            kinds = ", ".join(dict.fromkeys(d.kind for d in advice.designs if d.expressive))
+            png = base64.b64encode(figure_png(advice.sheet())).decode("ascii")
+            display({"image/png": png,
+                     "text/plain": f"<sheet of the expressive designs: {kinds}>"}, raw=True)
+            return None
+        if len(words) != 1:
+            raise UsageError("usage: %plotwise why KIND, e.g. %plotwise why pie; kinds: "
+                             + ", ".join(REGISTRY))
+        try:
+            display(advice.why_not(words[0]))
+        except PlotwiseError as exc:
+            say_error(str(exc))
         return None
 
     def _code(self, words: list[str]):

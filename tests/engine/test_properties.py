@@ -121,6 +121,8 @@ def no_numeric_noise():
     """numpy's overflow/invalid RuntimeWarnings from inside plotwise are noise to a user: fail."""
     with warnings.catch_warnings():
         warnings.simplefilter("error", RuntimeWarning)
+        # a layout that collapsed draws panels of no size: a broken figure, not a warning
+        warnings.filterwarnings("error", message="constrained_layout not applied")
         yield
 
 

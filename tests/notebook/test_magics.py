@@ -153,3 +153,19 @@ def test_magics_take_engine_data_and_file_paths(fresh, tmp_path):
     with capture_output() as c:
         fresh.run_line_magic("plotwise", "compare missing.parquet --static")
     assert "no file at 'missing.parquet'" in c.stderr
+
+
+def test_why_and_sheet_magics_answer_about_the_last_advice(fresh):
+    fresh.run_line_magic("plotwise", "compare grunfeld --x firm --y invest --static")
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "why pie")
+    assert "A pie cannot show these data truthfully" in c.outputs[0].data["text/plain"]
+    assert "data:image/png;base64," in c.outputs[0].data["text/html"]
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "sheet")
+    assert "image/png" in c.outputs[0].data
+    with pytest.raises(UsageError, match="why KIND"):
+        fresh.run_line_magic("plotwise", "why")
+    with capture_output() as c:
+        fresh.run_line_magic("plotwise", "why radar")
+    assert "unknown chart kind 'radar'" in c.stderr
