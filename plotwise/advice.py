@@ -30,6 +30,7 @@ class Advice:
     surprises: list[Surprise] = field(default_factory=list)  # what deserves a second look
     _df: object | None = field(default=None, repr=False, compare=False)  # pandas or engine data
     _input: object | None = field(default=None, repr=False, compare=False)  # what advise() got
+    _advise: object | None = field(default=None, repr=False, compare=False)  # plotwise.advise
 
     @property
     def fields(self) -> dict[str, FieldProfile]:

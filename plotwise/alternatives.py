@@ -1,6 +1,7 @@
 """The other charts: "why not the chart I had in mind?" (``Advice.why_not``) and a sheet of every
 expressive design drawn small (``Advice.sheet``). Both read an Advice; why_not may ask the
-pipeline the same question under another task when the kind answers a different one."""
+pipeline (through the Advice's ``_advise``) the same question under another task when the kind
+answers a different one."""
 
 from __future__ import annotations
 
@@ -128,9 +129,8 @@ def why_not(advice: Advice, kind: str) -> WhyNot:
     serves = [t for t, v in REGISTRY[kind].task_fit.items() if v > 0]
     asked = advice.task
     others = [t for t in serves if t != asked]
-    if advice._df is not None and others:
-        from plotwise.pipeline import advise
-
+    advise = advice._advise  # plotwise.advise, handed over by the pipeline (no import cycle)
+    if advice._df is not None and others and advise is not None:
         req = {k: advice.request.get(k) for k in ("x", "y", "hue", "agg")}
         top = advice.shown(1)[0]
         data = advice._input if advice._input is not None else advice._df

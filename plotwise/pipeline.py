@@ -283,4 +283,4 @@ def _advise(df, task, x, y, hue, agg, value_range, palette, cmap, top) -> Advice
                   hazards=merged_hazards(wide, shown), notes=notes, top=top,
                   request=req.as_dict(), headline=headlines.get(req.task or shown[0].task),
                   surprises=surprises,
-                  _df=frame, _input=df)
+                  _df=frame, _input=df, _advise=advise)

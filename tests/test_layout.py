@@ -139,6 +139,13 @@ def test_readme_hazard_table_matches_the_registry():
     assert sorted(r[0].strip("`") for r in rows) == sorted(hazard_codes())
 
 
+def test_readme_surprise_table_matches_the_registry():
+    from plotwise.engine.surprises import SURPRISE_CHECKS
+
+    rows = _readme_table("## Surprises: what deserves a second look")
+    assert sorted(r[0].strip("`") for r in rows) == sorted(c.code for c in SURPRISE_CHECKS)
+
+
 def test_audit_codes_are_registered_or_documented_as_audit_only():
     from plotwise.figure_audit.report import AUDIT_ONLY_CODES
 
