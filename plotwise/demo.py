@@ -1,18 +1,23 @@
-"""Demo data: an invented harbour ferry network ("Harbourline"), generated reproducibly.
+"""Demo data: an invented harbour ferry network ("Oskavel Water"), generated reproducibly.
 
 Twelve piers, a skewed fare revenue per sailing, a two-peaked crossing time (express and
 regular boats), a daily passenger series with a three-week dock closure, a fare-type breakdown
 that adds to 100%, passenger counts for each pier in two seasons, and wind speed against
-delay. Everything here is made up by this code; it is for the demo only, never for tests of
-the method (those use published data, see tests/)."""
+delay; and for the surprises, a fleet list (one boat filed under the wrong class, one listed
+twice), a daily fuel log (a new engine lowers the level; a sensor writes -999) and parcel masses
+(one depot weighs in grams). Everything here is made up by this code; it is for the demo only,
+never for tests of the method (those use published data, see tests/)."""
 
 from __future__ import annotations
 
 import numpy as np
 import pandas as pd
 
-PIERS = ("North Quay", "Gull Point", "Saltmarsh", "Old Customs", "Lantern Rock", "Kelp Bay",
-         "Ferry Hill", "Tidewater", "Brine Steps", "Copper Wharf", "Heron Isle", "Mill Slip")
+# Invented names (checked to be nobody's line, pier or company that we know of).
+PIERS = ("Brannoch Quay", "Ostrel Point", "Vennick Steps", "Calvenna Slip", "Drewmoor Wharf",
+         "Pelgrin Bay", "Hasket Rock", "Vimmery Pier", "Corrowen Isle", "Ambervane Quay",
+         "Luttering Landing", "Quenmarch Steps")
+NETWORK = "Oskavel Water"
 FARE_TYPES = ("single", "return", "day pass", "commuter card", "concession")
 
 
@@ -81,10 +86,53 @@ def season_passengers(seed: int = 5) -> pd.DataFrame:
     return df
 
 
+def fleet(seed: int = 3) -> pd.DataFrame:
+    """One row per boat: hull length and top speed by class. Boat 'OW-17' is an express boat
+    filed as regular, and 'OW-30' is listed twice."""
+    rng = np.random.default_rng(seed)
+    n = 48
+    express = np.arange(n) % 2 == 0
+    hull = np.where(express, rng.normal(24, 1.5, n), rng.normal(38, 2.5, n)).round(2)
+    speed = np.where(express, rng.normal(31, 1.8, n), rng.normal(18, 1.5, n)).round(2)
+    df = pd.DataFrame({"boat_class": np.where(express, "express", "regular"),
+                       "hull_m": hull, "top_knots": speed},
+                      index=[f"OW-{i:02d}" for i in range(n)])
+    df.loc["OW-16", "boat_class"] = "regular"  # filed under the wrong class
+    df.index.name = "boat"
+    return pd.concat([df, df.loc[["OW-30"]]])  # listed twice
+
+
+def fuel_log(seed: int = 9) -> pd.DataFrame:
+    """Fuel burnt per day by one boat; a new engine fitted on 2025-06-02 burns about 15% less,
+    and on one day the sensor wrote its missing-value code -999."""
+    rng = np.random.default_rng(seed)
+    days = pd.date_range("2025-03-01", periods=200, freq="D")
+    litres = rng.normal(820, 25, len(days))
+    litres[days >= "2025-06-02"] *= 0.85
+    litres = litres.round(1)
+    litres[57] = -999.0
+    return pd.DataFrame({"day": days, "fuel_litres": litres})
+
+
+def parcels(seed: int = 21) -> pd.DataFrame:
+    """Parcel masses per depot; the Vennick Steps depot records grams, the others kilograms,
+    and one Ostrel Point parcel was typed with an extra digit."""
+    rng = np.random.default_rng(seed)
+    depots = np.array(["Brannoch Quay", "Ostrel Point", "Vennick Steps", "Hasket Rock"])
+    depot = rng.choice(depots, 400)
+    mass = rng.lognormal(np.log(4.0), 0.2, 400).round(2)
+    grams = depot == "Vennick Steps"
+    mass[grams] = (mass[grams] * 1000).round()
+    first = int(np.flatnonzero(depot == "Ostrel Point")[0])
+    mass[first] = 41.0  # 4.1 kg typed with an extra digit
+    return pd.DataFrame({"depot": depot, "parcel_mass": mass})
+
+
 def demo_data() -> dict[str, pd.DataFrame]:
     """All demo frames by name."""
     return {"sailings": sailings(), "daily": daily_passengers(), "fares": fare_mix(),
-            "survey": survey_reasons(), "seasons": season_passengers()}
+            "survey": survey_reasons(), "seasons": season_passengers(), "fleet": fleet(),
+            "fuel": fuel_log(), "parcels": parcels()}
 
 
 # The tour of the five tasks: (title, frame name, task, x, y, hue).
@@ -102,6 +150,13 @@ HAZARD_TOUR = (
     ("two-summers", "seasons", "compare", "pier", "weekday_passengers", None),
 )
 
+# Data with something to look at twice: (title, frame name, task, x, y, hue).
+SURPRISE_TOUR = (
+    ("mislabelled-boat", "fleet", "correlate", "hull_m", "top_knots", "boat_class"),
+    ("new-engine", "fuel", "trend", "day", "fuel_litres", None),
+    ("parcel-units", "parcels", "compare", "depot", "parcel_mass", None),
+)
+
 
 def main(argv=None) -> int:
     import argparse
@@ -117,19 +172,21 @@ def main(argv=None) -> int:
     out.mkdir(parents=True, exist_ok=True)
     data = demo_data()
     sections, texts = [], []
-    for title, frame, task, x, y, hue in TOUR + HAZARD_TOUR:
+    for title, frame, task, x, y, hue in TOUR + HAZARD_TOUR + SURPRISE_TOUR:
         advice = advise(data[frame], task, x=x, y=y, hue=hue)
         png = figure_png(advice.show())
         (out / f"{title}.png").write_bytes(png)
         sections.append(f"<h2>{title}: {frame}</h2>" + advice_html(advice, png=png, profile=False))
         texts.append(f"=== {title} ({frame}) ===\n{advice.text()}\n")
-        print(f"{title:>12}: {', '.join(d.title for d in advice.shown())}; hazards: "
-              f"{', '.join(advice.hazard_codes()) or 'none'}")
+        print(f"{title:>16}: {', '.join(d.title for d in advice.shown())}; hazards: "
+              f"{', '.join(advice.hazard_codes()) or 'none'}; surprises: "
+              f"{', '.join(dict.fromkeys(advice.surprise_codes())) or 'none'}")
     (out / "summary.html").write_text(
         "<!doctype html><meta charset='utf-8'><title>plotwise demo</title>"
-        "<h1>plotwise demo: Harbourline ferries</h1>" + "".join(sections), encoding="utf-8")
+        f"<h1>plotwise demo: {NETWORK} ferries</h1>" + "".join(sections), encoding="utf-8")
     (out / "summary.txt").write_text("\n".join(texts), encoding="utf-8")
-    print(f"wrote {len(TOUR) + len(HAZARD_TOUR)} PNGs, summary.html and summary.txt to {out.resolve()}")
+    shown = len(TOUR) + len(HAZARD_TOUR) + len(SURPRISE_TOUR)
+    print(f"wrote {shown} PNGs, summary.html and summary.txt to {out.resolve()}")
     return 0
 
 

@@ -181,7 +181,8 @@ def _label_misfit(ctx: SurpriseContext) -> list[Surprise]:
                   for i in flagged[:NAMED])
     return [Surprise(
         "label-misfit", "info",
-        f"{row_list(rows)} of {ctx.hue!r} sit among items of another label: row "
+        f"{row_list(rows)} of {ctx.hue!r} {'sits' if len(rows) == 1 else 'sit'} among items "
+        "of another label: row "
         f"{_label(rows[0])} ({_label(raw[first])}) has {other[first]} of its {k} nearest items "
         f"labelled {common[first]!r} (on standardised {ctx.x!r} and {ctx.y!r}"
         + (f"; among a seeded sample of {MISFIT_SAMPLE:,} items)." if sampled else ")."),
@@ -248,6 +249,9 @@ def level_shift(y: np.ndarray) -> LevelShift | None:
     if n < T["shift_min_points"] or np.ptp(y) == 0:
         return None
     y = (y - y.mean()) / y.std()  # scale-free: ±1e300 stays finite
+    q1, q3 = np.percentile(y, [25, 75])
+    # a lone extreme value (a sensor code, a typo) must not decide where the level changes
+    y = np.clip(y, q1 - 3 * (q3 - q1), q3 + 3 * (q3 - q1)) if q3 > q1 else y
     cs, cs2 = np.cumsum(y), np.cumsum(y * y)
     m = max(3, int(0.05 * n))
     k = np.arange(m, n - m + 1)
@@ -302,14 +306,15 @@ def _level_shift(ctx: SurpriseContext) -> list[Surprise]:
         return []
     g, found, series = best
     at = series.index[found.at]
-    before = float(series.iloc[:found.at].mean())
-    after = float(series.iloc[found.at:].mean())
+    # medians: a lone extreme value (a sensor code) does not move the levels reported
+    before = float(series.iloc[:found.at].median())
+    after = float(series.iloc[found.at:].median())
     whose = f" for {ctx.hue} = {_label(g)}" if ctx.hue else ""
     direction = "drops" if after < before else "rises"
     return [Surprise(
         "level-shift", "info",
-        f"the level of {ctx.y!r}{whose} {direction} from about {fmt(before)} to about "
-        f"{fmt(after)} at {_when(at)} ({len(series) - found.at} of {len(series)} time points "
+        f"the level of {ctx.y!r}{whose} {direction} from a median of about {fmt(before)} to "
+        f"about {fmt(after)} at {_when(at)} ({len(series) - found.at} of {len(series)} time points "
         "after it) and stays there; a single step fits far better than a constant or a "
         f"straight line (BIC lower by {found.evidence:.0f}).",
         f"what changed at {_when(at)}: a new instrument or method, a changed definition, a real "
@@ -403,6 +408,13 @@ def _impossible_dates(ctx, col, s: pd.Series) -> list[Surprise]:
 
 
 def _chance_repeats_unlikely(frame: pd.DataFrame) -> bool:
+    """Exact repeats of whole rows are unlikely by chance: a column of fractional numbers that
+    are nearly all distinct, or so many combinations of values that a repeat is rare."""
+    for c in frame.columns:
+        s = frame[c]
+        if pd.api.types.is_float_dtype(s.dtype) and s.nunique() >= 0.9 * s.notna().sum() > 0 \
+                and not (s.dropna() == s.dropna().round()).all():
+            return True
     combos = 1.0
     for c in frame.columns:
         combos *= max(1, int(frame[c].nunique(dropna=False)))
@@ -429,11 +441,12 @@ def _repeated_rows(ctx: SurpriseContext) -> list[Surprise]:
     rows = ctx.rows(pos)
     first = frame.iloc[: pos[0] + 1].duplicated(keep="last").to_numpy()
     twin = ctx.index[int(np.flatnonzero(first)[0])]
+    which = (f"row {_label(rows[0])} repeats row {_label(twin)}" if twin != rows[0] else
+             f"the label {_label(twin)} is on both copies")
     return [Surprise(
         "duplicate-rows", "info",
         f"{row_list(rows, len(pos))} {'repeats' if len(pos) == 1 else 'repeat'} an earlier row "
-        "in every column (row "
-        f"{_label(rows[0])} repeats row {_label(twin)}).",
+        f"in every column ({which}).",
         "whether each row is a separate item; drop repeats with df.drop_duplicates() if they "
         "were loaded twice.", rows=rows[:NAMED])]
 

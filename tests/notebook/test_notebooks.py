@@ -36,7 +36,7 @@ def test_notebook_runs(path, tmp_path):
         text = " ".join(str(v) for out in cell.outputs for v in out.get("data", {}).values())
         if not cell.source.startswith("check ="):
             assert any("image/png" in out.get("data", {}) for out in cell.outputs), cell.source
-        for code in expect["expect_hazards"]:
+        for code in expect["expect_hazards"] + expect.get("expect_surprises", []):
             assert code in text, f"{path.name}: {cell.source!r} should show {code}"
     assert advice_cells >= 1
 
