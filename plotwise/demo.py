@@ -147,7 +147,7 @@ TOUR = (
 HAZARD_TOUR = (
     ("survey-shares", "survey", "proportion", "reason", "share_pct", None),
     ("crossing-by-pier", "sailings", "compare", "pier", "crossing_minutes", None),
-    ("two-summers", "seasons", "compare", "pier", "weekday_passengers", None),
+    ("two-summers", "seasons", "compare", "pier", "weekday_passengers", "season"),
 )
 
 # Data with something to look at twice: (title, frame name, task, x, y, hue).

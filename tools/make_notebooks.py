@@ -87,7 +87,7 @@ def tour():
                     "ax.set_ylabel('average crossing (minutes)')", []),
         new_markdown_cell("## Two summers, pier by pier\n\nWith two time points per pier, "
                           "slope and difference charts come first:"),
-        advice_cell("%plotwise compare seasons --x pier --y weekday_passengers", []),
+        advice_cell("%plotwise compare seasons --x pier --y weekday_passengers --hue season", []),
         new_markdown_cell("## What you never expected to see\n\nBeside what could make a "
                           "chart mislead, plotwise points at what in the data deserves a second "
                           "look, names the rows and marks them on the panels. The fleet list "

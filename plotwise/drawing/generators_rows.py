@@ -112,12 +112,13 @@ def _boxlike(c: Ctx, kind: str) -> list[str]:
     if kind == "strip":
         lines.append(f"pts = {data}.sample(2000, random_state=0) if len({data}) > 2000 else {data}")
         data = "pts"
-    logs = var in d.options.log_columns
+    # A log axis is seaborn's log_scale: a violin's density is then estimated on the log of the
+    # values (setting the axis afterwards squeezes a density made on raw values into a line).
+    if var in d.options.log_columns:
+        extra += ", log_scale=True"
     if group is None:
         lines.append(f"sns.{func}(x={data}[{var!r}], color={MAIN_COLOUR!r}{extra}, ax={c.ax})")
         lines += _labels(c, var, "") + _style(c, "x")
-        if logs:
-            lines.append(f'{c.ax}.set_xscale("log")')
         return lines
     lines.append(f"g = {data}[{group!r}].astype(str)")
     if c.nominal(group):
@@ -131,13 +132,9 @@ def _boxlike(c: Ctx, kind: str) -> list[str]:
         lines.append(f"sns.{func}(x={data}[{var!r}], y=g, order=order, orient=\"h\", "
                      f"{colour}{extra}, ax={c.ax})")
         lines += _labels(c, var, group) + _style(c, "x")
-        if logs:
-            lines.append(f'{c.ax}.set_xscale("log")')
     else:
         lines.append(f"sns.{func}(x=g, y={data}[{var!r}], order=order, {colour}{extra}, ax={c.ax})")
         lines += _labels(c, group, var) + _style(c, "y")
-        if logs:
-            lines.append(f'{c.ax}.set_yscale("log")')
     return lines
 
 
