@@ -44,6 +44,7 @@ bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/run.py
 	MPLBACKEND=Agg $(BIN)/python benchmarks/engines.py
 	MPLBACKEND=Agg $(BIN)/python benchmarks/odd_inputs.py
+	MPLBACKEND=Agg $(BIN)/python benchmarks/sheet.py
 
 clean:
 	rm -rf $(VENV) build
