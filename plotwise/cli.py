@@ -97,7 +97,8 @@ def cmd_advise(args) -> int:
     try:
         a = advise(args.file, args.task, x=args.x, y=args.y, hue=args.hue, agg=args.agg,
                    top=args.top)
-        page = page_html(a, f"plotwise advice for {Path(args.file).name}")
+        page = page_html(a, f"plotwise advice for {Path(args.file).name}",
+                         why=tuple(args.why or ()), sheet=args.sheet)
     except PlotwiseError as exc:
         print(f"plotwise: {exc}", file=sys.stderr)
         return 2
@@ -110,7 +111,7 @@ def cmd_advise(args) -> int:
         return 2
     best = ", ".join(d.title for d in a.shown())
     print(f"plotwise: wrote {out} ({a.engine}, {a.profile.rows:,} rows; top: {best}; "
-          f"{len(a.hazards)} hazards)")
+          f"{len(a.hazards)} hazards, {len(a.surprises)} surprises)")
     return 0
 
 
@@ -124,6 +125,7 @@ def main(argv=None) -> int:
                    help="stop the script after this many seconds and exit 2 (default 300; 0: "
                         "no limit)")
     p.set_defaults(func=cmd_audit)
+    from plotwise.engine.kinds import REGISTRY
     from plotwise.engine.rules import TASKS
 
     p = sub.add_parser("advise", help="advise on a Parquet or CSV file (scanned by DuckDB) and "
@@ -138,6 +140,10 @@ def main(argv=None) -> int:
                    help="how rows are combined per category")
     p.add_argument("--top", type=int, default=3, help="designs drawn side by side (default 3)")
     p.add_argument("--out", default="advice.html", help="the HTML page to write (default advice.html)")
+    p.add_argument("--why", action="append", metavar="KIND", choices=list(REGISTRY),
+                   help="also answer why a KIND was not recommended (repeatable)")
+    p.add_argument("--sheet", action="store_true",
+                   help="also draw every expressive design small, best first")
     p.set_defaults(func=cmd_advise)
     args = parser.parse_args(argv)
     return args.func(args)

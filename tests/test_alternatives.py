@@ -84,3 +84,33 @@ def test_sheet_counts_what_it_leaves_out(monkeypatch):
     more = len([d for d in a.designs if d.expressive]) - 2
     assert fig._supxlabel.get_text().startswith(f"and {more} more")
     plt.close(fig)
+
+
+def test_cli_page_carries_surprises_why_not_and_the_sheet(tmp_path, capsys):
+    import re
+
+    import numpy as np
+    import pandas as pd
+
+    from plotwise.cli import main
+
+    rng = np.random.default_rng(4)
+    df = pd.DataFrame({"shop": np.repeat(["Alder", "Birch", "Cedar"], 40),
+                       "basket": rng.normal(50, 5, 120).round(2)})
+    df.loc[45, "basket"] = 500.0
+    data = tmp_path / "baskets.csv"
+    df.to_csv(data, index=False)
+    out = tmp_path / "page.html"
+    argv = ["advise", str(data), "--task", "compare", "--x", "shop", "--y", "basket",
+            "--why", "pie", "--why", "scatter", "--sheet", "--out", str(out)]
+    assert main(argv) == 0
+    assert re.search(r"\b[1-9]\d* surprises\)", capsys.readouterr().out)
+    page = out.read_text(encoding="utf-8")
+    assert "Worth a second look" in page and "group-outlier" in page and "row 45" in page
+    assert "Why not a pie?" in page and "Why not a scatter?" in page
+    assert "Every design worth a look" in page
+    # the top row, the pie drawn as not recommended, and the sheet
+    assert len(re.findall(r"src='data:image/png;base64,", page)) == 3
+    with pytest.raises(SystemExit):
+        main(["advise", str(data), "--why", "radar", "--out", str(out)])
+    assert "invalid choice: 'radar'" in capsys.readouterr().err

@@ -267,10 +267,11 @@ SURPRISE_THRESHOLDS: dict[str, Any] = {
     # only when they lie far outside the other values; dates that stand for "unknown".
     "sentinels": (-99999, -9999, -999, -99, 999, 9999, 99999),
     "sentinel_dates": ("1900-01-01", "1970-01-01", "1899-12-30"),
-    # duplicate-rows: whole-row repeats are reported only when the columns have so many
-    # combinations (product of distinct counts ≥ this × rows²) that a chance repeat is unlikely;
-    # one row per key is "expected" when at least this share of keys have exactly one.
-    "duplicate_combinations": 10,
+    # duplicate-rows: whole-row repeats are reported only when chance explains few of them: the
+    # pairs of rows expected to agree in every column by chance (columns taken as independent)
+    # at most this share of the repeats found; one row per key is "expected" when at least this
+    # share of keys have exactly one (common practice).
+    "duplicate_chance": 0.1,
     "one_per_key": 0.9,
     # unit-mix: two density peaks of log10(values) this close to a whole number (1–3) of decades
     # apart, each holding at least this share of the values (common practice).

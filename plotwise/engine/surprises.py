@@ -407,18 +407,19 @@ def _impossible_dates(ctx, col, s: pd.Series) -> list[Surprise]:
     return out
 
 
-def _chance_repeats_unlikely(frame: pd.DataFrame) -> bool:
-    """Exact repeats of whole rows are unlikely by chance: a column of fractional numbers that
-    are nearly all distinct, or so many combinations of values that a repeat is rare."""
+def chance_repeats(frame: pd.DataFrame) -> float:
+    """How many pairs of rows would agree in every column by chance, were the columns
+    independent: the pairs of rows times, per column, the share of pairs of rows holding equal
+    values (the repeats themselves count in, which errs towards silence)."""
+    n = len(frame)
+    pairs = n * (n - 1) / 2
+    expected = pairs
     for c in frame.columns:
-        s = frame[c]
-        if pd.api.types.is_float_dtype(s.dtype) and s.nunique() >= 0.9 * s.notna().sum() > 0 \
-                and not (s.dropna() == s.dropna().round()).all():
-            return True
-    combos = 1.0
-    for c in frame.columns:
-        combos *= max(1, int(frame[c].nunique(dropna=False)))
-    return combos >= T["duplicate_combinations"] * len(frame) ** 2
+        counts = frame[c].value_counts(dropna=False).to_numpy(dtype=float)
+        expected *= float((counts * (counts - 1)).sum()) / (n * (n - 1))
+        if expected == 0:
+            break
+    return expected
 
 
 @surprise("duplicate-rows", "rows repeated exactly, or several rows where one per key is "
@@ -435,7 +436,7 @@ def _repeated_rows(ctx: SurpriseContext) -> list[Surprise]:
         dup = frame.duplicated(keep="first").to_numpy()
     except TypeError:  # unhashable values (lists, dicts): no row comparison
         return []
-    if not dup.any() or not _chance_repeats_unlikely(frame):
+    if not dup.any() or chance_repeats(frame) > T["duplicate_chance"] * dup.sum():
         return []
     pos = np.flatnonzero(dup)
     rows = ctx.rows(pos)

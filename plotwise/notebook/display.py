@@ -159,9 +159,24 @@ def advice_bundle(advice: Advice) -> dict:
     }
 
 
-def page_html(advice: Advice, title: str) -> str:
+def alternatives_html(advice: Advice, why: tuple[str, ...] = (), sheet: bool = False) -> str:
+    """'Why not' answers for the kinds in ``why``, and the sheet of every expressive design."""
+    parts = []
+    for kind in why:
+        parts.append(f"<h4>Why not a {_e(kind)}?</h4>" + advice.why_not(kind)._repr_html_())
+    if sheet:
+        b64 = base64.b64encode(figure_png(advice.sheet())).decode("ascii")
+        kinds = ", ".join(dict.fromkeys(d.kind for d in advice.designs if d.expressive))
+        parts.append("<h4>Every design worth a look</h4>"
+                     f"<img alt='{_e('sheet of the expressive designs: ' + kinds)}' "
+                     f"src='data:image/png;base64,{b64}'/>")
+    return "".join(parts)
+
+
+def page_html(advice: Advice, title: str, why: tuple[str, ...] = (), sheet: bool = False) -> str:
     """A self-contained HTML page (figures inline as PNG, no scripts, no links out): the advice,
-    the column profile and the code of each shown design. Readable offline."""
+    the column profile, the code of each shown design, and the 'why not' answers and the sheet
+    when asked for. Readable offline."""
     code = "".join(
         f"<details><summary>Code for {i}. {_e(d.title)}</summary><pre>{_e(d.code())}</pre></details>"
         for i, d in enumerate(advice.shown(), 1))
@@ -171,4 +186,4 @@ def page_html(advice: Advice, title: str) -> str:
             "img{max-width:100%;height:auto}pre{background:#f6f6f6;padding:8px;overflow-x:auto;"
             "font-size:12px}</style></head><body>"
             f"<h2>{_e(title)}</h2>" + advice_html(advice, image=True, profile=True) + code
-            + "</body></html>\n")
+            + alternatives_html(advice, why, sheet) + "</body></html>\n")

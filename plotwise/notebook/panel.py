@@ -16,7 +16,7 @@ from plotwise.advice import Advice
 from plotwise.drawing.codegen import short
 from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
-from plotwise.notebook.display import advice_html, figure_png, hazards_html
+from plotwise.notebook.display import advice_html, figure_png, hazards_html, surprises_html
 from plotwise.pipeline import advise
 
 
@@ -108,7 +108,8 @@ class AdvicePanel(widgets.VBox):
         a = self.advice
         self._top_png = figure_png(a.show())
         self.top_image.value = self._top_png
-        self.hazards.value = hazards_html(a.hazards)
+        self.hazards.value = hazards_html(a.hazards) + (
+            "<b>Worth a second look</b>" + surprises_html(a.surprises) if a.surprises else "")
         self._busy = True
         try:
             self.designs.options = [

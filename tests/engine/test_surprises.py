@@ -206,6 +206,14 @@ def test_duplicate_rows_in_iris_and_a_frame_of_few_combinations_is_silent():
     # species × a 3-level grade: repeats are expected, not a surprise
     few = pd.DataFrame({"kind": list("abc") * 20, "grade": ["lo", "mid", "hi"] * 20})
     assert "duplicate-rows" not in codes(plotwise.advise(few, "compare", x="kind"))
+    # 120 baskets rounded to cents in 3 shops: a repeated row is what chance gives (about two
+    # pairs expected), not a surprise
+    rng = np.random.default_rng(4)
+    baskets = pd.DataFrame({"shop": np.repeat(["Alder", "Birch", "Cedar"], 40),
+                            "basket": rng.normal(50, 5, 120).round(2)})
+    assert baskets.duplicated().sum() == 1
+    assert "duplicate-rows" not in codes(plotwise.advise(baskets, "compare", x="shop",
+                                                         y="basket"))
 
 
 def test_two_rows_for_one_day_when_every_other_day_has_one(rng):
