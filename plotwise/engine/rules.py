@@ -255,6 +255,8 @@ SURPRISE_THRESHOLDS: dict[str, Any] = {
     "modified_z_constant": 0.6745,
     "outlier_min_group": 5,
     "outlier_max_share": 0.05,  # more than this share far out: heavy tails, not a surprise
+    # ...and on the log of positive values whose sample skewness passes this (common practice).
+    "outlier_skew": 1.0,
     # level-shift: one change in mean found by least squares (the first step of binary
     # segmentation), kept when its BIC beats both a constant and a straight line by more than 10
     # ("very strong" evidence: Kass, R. E. & Raftery, A. E. 1995, JASA 90:773–795), with the
@@ -275,7 +277,7 @@ SURPRISE_THRESHOLDS: dict[str, Any] = {
     "one_per_key": 0.9,
     # unit-mix: two density peaks of log10(values) this close to a whole number (1–3) of decades
     # apart, each holding at least this share of the values (common practice).
-    "unit_decades_tolerance": 0.2,
+    "unit_decades_tolerance": 0.1,
     "unit_min_share": 0.05,
     "unit_min_values": 50,
 }

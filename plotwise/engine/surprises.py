@@ -206,12 +206,19 @@ def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
     if not value or not group:
         return []
     d = ctx.working[[group, value]].dropna()
+    f = ctx.field(value)
+    # The modified z-score assumes a roughly symmetric spread. A heavy right tail of positive
+    # values is judged on their logarithm; with zeros as well (rain, sales) a far value is the
+    # tail itself, not a surprise (the `skewed` hazard speaks of it).
+    skewed = f is not None and (f.skew or 0) > T["outlier_skew"]
+    if skewed and not (d[value] > 0).all():
+        return []
     found: list[tuple[float, int, object, float, float]] = []  # |z|, position, group, value, median
     for g, part in d.groupby(group, observed=True, sort=False):
         if len(part) < T["outlier_min_group"]:
             continue
         v = part[value].to_numpy(dtype=float)
-        z = modified_z(v)
+        z = modified_z(np.log10(v) if skewed else v)
         if z is None:
             continue
         med = float(np.median(v))
@@ -384,7 +391,10 @@ def _impossible_dates(ctx, col, s: pd.Series) -> list[Surprise]:
     placeholder = naive.isin(pd.to_datetime(list(T["sentinel_dates"])))
     if placeholder.any() and (~placeholder & naive.notna()).sum() >= 5:
         rest = naive[~placeholder].dropna()
-        pos = np.flatnonzero(placeholder.to_numpy() & (naive < rest.min()).to_numpy())
+        # "well before": further from the other dates than they span, and by over a year (a
+        # car's model year 1970 beside 1971..1982 is a date, not a placeholder)
+        gap = max(rest.max() - rest.min(), pd.Timedelta(days=366))
+        pos = np.flatnonzero(placeholder.to_numpy() & (naive < rest.min() - gap).to_numpy())
         if len(pos):
             vals = [str(naive.iloc[p].date()) for p in pos[:NAMED]]
             rows = ctx.rows(pos)
@@ -514,6 +524,8 @@ def _unit_mix(ctx: SurpriseContext) -> list[Surprise]:
     if min(share, 1 - share) < T["unit_min_share"]:
         return []
     minority = low if share <= 0.5 else np.flatnonzero(pos_ok)[lv >= cut]
+    if _clusters_explained(ctx, minority, pos_ok):
+        return []
     rows = ctx.rows(minority)
     factor = 10**decades
     return [Surprise(
@@ -524,6 +536,29 @@ def _unit_mix(ctx: SurpriseContext) -> list[Surprise]:
         "euros) look like this.",
         f"the units of those rows; divide or multiply by {factor:,} where they differ.",
         rows=rows[:NAMED], columns=(col,))]
+
+
+def _clusters_explained(ctx: SurpriseContext, minority: np.ndarray, used: np.ndarray) -> bool:
+    """Two magnitudes that the question itself explains: a series that grew tenfold over time
+    (the clusters follow each other instead of mixing), or several whole groups of one size and
+    several of another (big and small kinds of items, not two units)."""
+    inside = np.zeros(len(used), dtype=bool)
+    inside[minority] = True
+    if ctx.task == "trend" and ctx.x in ctx.working:
+        t = pd.Series(ctx.working[ctx.x].to_numpy()[used])
+        small, big = t[inside[used]], t[~inside[used]]
+        if small.empty or big.empty:
+            return False
+        within = big.between(small.min(), small.max()).mean()
+        around = small.between(big.min(), big.max()).mean()
+        return bool(min(within, around) < 0.25)
+    group = ctx.value_and_group()[1]
+    if group and group in ctx.working:
+        g = pd.Series(ctx.working[group].to_numpy()[used]).astype(str)
+        share_in = pd.Series(inside[used]).groupby(g.to_numpy()).mean()
+        whole = share_in[share_in >= 0.9]
+        return len(whole) >= 2 and (share_in <= 0.1).sum() >= 2
+    return False
 
 
 # ------------------------------------------------------------------------------------------------

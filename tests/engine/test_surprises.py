@@ -270,3 +270,32 @@ def test_engine_data_small_enough_gets_surprises_and_large_says_why_not(tmp_path
     monkeypatch.setitem(THRESHOLDS, "draw_sample", 50)
     a = plotwise.advise(duckdb.connect().from_df(df), "compare", x="shop", y="basket")
     assert a.surprises == [] and any("surprises" in n.lower() for n in a.notes)
+
+
+# Open data where a practitioner sees nothing to look at twice (each once raised a false alarm).
+QUIET = [
+    # vega_datasets' monthly AAPL prices: a tenfold rise over the years, not two units
+    ("stocks", lambda d: d[d.symbol == "AAPL"], dict(task="trend", x="date", y="price"),
+     "unit-mix"),
+    # vega_datasets' US electricity by source: sources differ in size by nature
+    ("electricity", None, dict(task="compare", x="source", y="net_generation"), "unit-mix"),
+    # vega_datasets' Seattle weather: rain is zero on most days, a heavy tail is no outlier
+    ("seattle", None, dict(task="compare", x="weather", y="precipitation", agg="sum"),
+     "group-outlier"),
+    # vega_datasets' cars: model year 1970 stored as 1970-01-01 is a real year, no placeholder
+    ("cars", None, dict(task="compare", x="Year", y="Horsepower"), "impossible-value"),
+]
+
+
+@pytest.mark.parametrize("name, pick, kw, code", QUIET, ids=[q[0] + "-" + q[3] for q in QUIET])
+def test_open_data_raises_no_false_alarm(name, pick, kw, code):
+    import sys
+    from pathlib import Path
+
+    sys.path.insert(0, str(Path(__file__).resolve().parents[1] / "judgement"))
+    import judgement_data
+
+    df = getattr(judgement_data, name)()
+    if pick is not None:
+        df = pick(df)
+    assert code not in codes(plotwise.advise(df, **kw))
