@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import ast
 import base64
-import sys
+from typing import NoReturn
 
 import pandas as pd
 from IPython.core.error import UsageError
@@ -31,9 +31,10 @@ def _remember(advice: Advice, name: str) -> None:
     _LAST["name"] = name
 
 
-def say_error(message: str) -> None:
-    """A short readable message in the cell output, never a traceback."""
-    print(f"plotwise: {message}", file=sys.stderr)
+def refuse(message: str) -> NoReturn:
+    """Bad use of a magic: a UsageError, which IPython shows as one line (no traceback) and
+    which stops "Run All" at this cell instead of carrying on with stale advice."""
+    raise UsageError(f"plotwise: {message}")
 
 
 def is_frame(v) -> bool:
@@ -110,10 +111,38 @@ def advice_options(func):
         argument("--y", help="column for the measure or second variable"),
         argument("--hue", help="column that splits the data into coloured groups"),
         argument("--top", type=int, default=3, help="how many designs to draw side by side"),
+        argument("--agg", help="how rows combine per category: sum, mean, median or count"),
+        argument("--palette", help="your colours for groups, comma-separated (names or hex "
+                 "codes), e.g. --palette '#0072B2,#E69F00'"),
+        argument("--cmap", help="your colormap for lightness encodings, e.g. --cmap viridis"),
+        argument("--value-range", dest="value_range", help="the value axis you plan, LOW,HIGH "
+                 "(checked, e.g. for a truncated baseline), e.g. --value-range 0,120"),
         argument("--static", action="store_true", help="static display, no widget panel"),
     ]):
         func = decorator(func)
     return func
+
+
+def extra_options(args) -> dict:
+    """--agg, --palette, --cmap and --value-range as advise() takes them."""
+    out: dict = {}
+    if args.palette:
+        # (IPython's argument splitting keeps quotes: '#0072B2,#E69F00' arrives quoted)
+        text = args.palette.strip().strip("'\"")
+        out["palette"] = [c.strip().strip("'\"") for c in text.split(",") if c.strip()]
+    if args.cmap:
+        out["cmap"] = args.cmap.strip().strip("'\"")
+    if args.agg:
+        out["agg"] = args.agg.strip().strip("'\"")
+    if args.value_range:
+        parts = args.value_range.strip().strip("'\"").split(",")
+        try:
+            low, high = (float(p) for p in parts)
+        except ValueError:
+            refuse(f"--value-range takes LOW,HIGH (two numbers), not {args.value_range!r}; "
+                   "e.g. --value-range 0,120")
+        out["value_range"] = (low, high)
+    return out
 
 
 @magics_class
@@ -136,9 +165,10 @@ class PlotwiseMagics(Magics):
 
     def _advise(self, frame, args, task, name) -> None:
         try:
-            advice = advise(frame, task, x=args.x, y=args.y, hue=args.hue, top=args.top)
+            advice = advise(frame, task, x=args.x, y=args.y, hue=args.hue, top=args.top,
+                            **extra_options(args))
         except PlotwiseError as exc:
-            say_error(str(exc))
+            refuse(str(exc))
             return
         self._show(advice, name, not args.static)
 
@@ -151,7 +181,8 @@ class PlotwiseMagics(Magics):
     @line_magic("plotwise")
     def plotwise_line(self, line: str = ""):
         """Advise on a DataFrame by name: %plotwise [TASK] DF_NAME [--x COL] [--y COL]
-        [--hue COL] [--top N] [--static]. %plotwise code N puts the code of design N (1 = best)
+        [--hue COL] [--top N] [--agg HOW] [--palette C1,C2,...] [--cmap NAME]
+        [--value-range LOW,HIGH] [--static]. %plotwise code N puts the code of design N (1 = best)
         from the last advice into the next cell; %plotwise why KIND answers why the last advice
         did not recommend KIND; %plotwise sheet draws every expressive design of it small."""
         args = parse_argstring(self.plotwise_line, line)
@@ -163,7 +194,7 @@ class PlotwiseMagics(Magics):
         task, rest = split_positionals(words)
         ns = self.shell.user_ns
         if len(rest) == 2 and task is None:
-            say_error(f"unknown task {rest[0]!r}; use one of: {', '.join(TASKS)} (or leave it out).")
+            refuse(f"unknown task {rest[0]!r}; use one of: {', '.join(TASKS)} (or leave it out).")
             return None
         if len(rest) != 1:
             raise UsageError("name one DataFrame: %plotwise [TASK] DF_NAME [options]; "
@@ -173,10 +204,10 @@ class PlotwiseMagics(Magics):
         if frame is None and name.lower().endswith((".parquet", ".pq", ".csv", ".tsv", ".csv.gz")):
             frame = name  # a file path: DuckDB scans it
         if frame is None:
-            say_error(f"no variable named {name!r}; " + frame_listing(ns))
+            refuse(f"no variable named {name!r}; " + frame_listing(ns))
             return None
         if not (is_frame(frame) or isinstance(frame, str)):
-            say_error(f"{name!r} is a {type(frame).__name__}, not a DataFrame; "
+            refuse(f"{name!r} is a {type(frame).__name__}, not a DataFrame; "
                       + frame_listing(ns))
             return None
         self._advise(frame, args, task, name if name.isidentifier() else "df")
@@ -208,7 +239,7 @@ class PlotwiseMagics(Magics):
         if is_frame(value):
             frame, name = value, name_of(value, ns)
         elif isinstance(value, (tuple, list)) and sum(is_frame(v) for v in value) > 1:
-            say_error("the cell returns several DataFrames; return one, or name it on the magic "
+            refuse("the cell returns several DataFrames; return one, or name it on the magic "
                       "line. " + frame_listing(ns))
             return None
         elif rest:
@@ -217,12 +248,12 @@ class PlotwiseMagics(Magics):
             if not is_frame(frame):
                 what = "not a DataFrame in the namespace" if rest[0] in ns else (
                     f"neither a task ({', '.join(TASKS)}) nor a variable")
-                say_error(f"{rest[0]!r} is {what}; " + frame_listing(ns))
+                refuse(f"{rest[0]!r} is {what}; " + frame_listing(ns))
                 return None
         else:
             name, frame = recent_displayed_frame(self.shell)
             if frame is None:
-                say_error("the cell returned no DataFrame and none was displayed before; end the "
+                refuse("the cell returned no DataFrame and none was displayed before; end the "
                           "cell with the DataFrame, or name it: %%plotwise TASK DF_NAME. "
                           + frame_listing(ns))
                 return None
@@ -249,7 +280,7 @@ class PlotwiseMagics(Magics):
         if isinstance(value, Figure) and value not in figures:
             figures.append(value)
         if not figures:
-            say_error("the cell drew no matplotlib figure; nothing to audit.")
+            refuse("the cell drew no matplotlib figure; nothing to audit.")
             return None
         try:
             for fig in figures:
@@ -278,7 +309,7 @@ class PlotwiseMagics(Magics):
 
         advice = last()
         if advice is None:
-            say_error("no advice yet in this session; run %plotwise or %%plotwise first.")
+            refuse("no advice yet in this session; run %plotwise or %%plotwise first.")
             return None
         if what == "sheet":
             if words:
@@ -296,19 +327,19 @@ class PlotwiseMagics(Magics):
         try:
             display(advice.why_not(words[0]))
         except PlotwiseError as exc:
-            say_error(str(exc))
+            refuse(str(exc))
         return None
 
     def _code(self, words: list[str]):
         advice = last()
         if advice is None:
-            say_error("no advice yet in this session; run %plotwise or %%plotwise first.")
+            refuse("no advice yet in this session; run %plotwise or %%plotwise first.")
             return None
         if len(words) != 1 or not words[0].isdigit():
             raise UsageError("usage: %plotwise code N (N = rank of the design, 1 = best)")
         n = int(words[0])
         if not 1 <= n <= len(advice.designs):
-            say_error(f"no design {n}; the last advice ranks designs 1..{len(advice.designs)}.")
+            refuse(f"no design {n}; the last advice ranks designs 1..{len(advice.designs)}.")
             return None
         code = advice.designs[n - 1].code(_LAST["name"] if _LAST["name"].isidentifier() else "df")
         self.shell.set_next_input(code, replace=False)

@@ -146,8 +146,11 @@ class AdvicePanel(widgets.VBox):
         if self._busy:
             return
         try:
+            kept = {k: self.advice.request.get(k) for k in ("agg", "value_range", "palette",
+                                                             "cmap")}
             self.advice = advise(self._frame, _chosen(self.task), x=_chosen(self.x),
-                                 y=_chosen(self.y), hue=_chosen(self.hue), top=self.advice.top)
+                                 y=_chosen(self.y), hue=_chosen(self.hue), top=self.advice.top,
+                                 **kept)
         except PlotwiseError as exc:
             shown = self.advice.request
             cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))

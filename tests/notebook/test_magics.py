@@ -59,35 +59,40 @@ def test_cell_magic_falls_back_to_displayed_frame(fresh):
 
 
 def test_cell_magic_missing_and_ambiguous(fresh):
-    with capture_output() as c:
+    with pytest.raises(UsageError) as e:
         fresh.run_cell_magic("plotwise", "compare", "y = 2")
-    assert "no DataFrame" in c.stderr and "grunfeld (220×5)" in c.stderr
-    with capture_output() as c:
+    assert "no DataFrame" in str(e.value) and "grunfeld (220×5)" in str(e.value)
+    with pytest.raises(UsageError) as e:
         fresh.run_cell_magic("plotwise", "compare", "grunfeld, grunfeld.head()")
-    assert "several DataFrames" in c.stderr
+    assert "several DataFrames" in str(e.value)
 
 
 def test_line_magic_and_errors(fresh):
     with capture_output() as c:
         fresh.run_line_magic("plotwise", "correlate grunfeld --static")
     assert not c.stderr and plotwise.last().task == "correlate"
-    with capture_output() as c:
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "compare nothing_here")
-    assert "no variable named 'nothing_here'" in c.stderr
+    assert "no variable named 'nothing_here'" in str(e.value)
     fresh.user_ns["numbers"] = [1, 2, 3]
-    with capture_output() as c:
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "compare numbers")
-    assert "is a list, not a DataFrame" in c.stderr
-    with capture_output() as c:
+    assert "is a list, not a DataFrame" in str(e.value)
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "compare grunfeld --x nope")
-    assert c.stderr.startswith("plotwise: no column named 'nope'")
-    with capture_output() as c:
+    assert "plotwise: no column named 'nope'" in str(e.value)
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "explain grunfeld")
-    assert "unknown task 'explain'" in c.stderr
-    with capture_output() as c:
+    assert "unknown task 'explain'" in str(e.value)
+    with pytest.raises(UsageError) as e:
         fresh.run_cell_magic("plotwise", "explain", "x = 3")
-    assert "neither a task" in c.stderr
-    assert "Traceback" not in c.stderr and "Traceback" not in c.stdout
+    assert "neither a task" in str(e.value)
+    # As a cell: one line, no traceback, and the cell fails (so "Run All" stops there).
+    with capture_output() as c:
+        result = fresh.run_cell("%plotwise explain grunfeld")
+    assert not result.success and isinstance(result.error_in_exec, UsageError)
+    shown = c.stdout + c.stderr
+    assert "unknown task 'explain'" in shown and "Traceback" not in shown
 
 
 def test_bad_options_raise_usage_error(fresh):
@@ -118,9 +123,9 @@ def test_code_n_puts_runnable_code_in_next_cell(fresh, monkeypatch):
     exec(code, ns)
     assert ns["fig"].axes
     plt.close(ns["fig"])
-    with capture_output() as c:
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "code 99")
-    assert "no design 99" in c.stderr
+    assert "no design 99" in str(e.value)
 
 
 def test_panel_shown_by_default(fresh):
@@ -150,9 +155,9 @@ def test_magics_take_engine_data_and_file_paths(fresh, tmp_path):
     assert not c.stderr, c.stderr
     a = plotwise.last()
     assert a.engine == "DuckDB" and f"duckdb.read_parquet({str(path)!r})" in a.code(0)
-    with capture_output() as c:
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "compare missing.parquet --static")
-    assert "no file at 'missing.parquet'" in c.stderr
+    assert "no file at 'missing.parquet'" in str(e.value)
 
 
 def test_why_and_sheet_magics_answer_about_the_last_advice(fresh):
@@ -166,6 +171,27 @@ def test_why_and_sheet_magics_answer_about_the_last_advice(fresh):
     assert "image/png" in c.outputs[0].data
     with pytest.raises(UsageError, match="why KIND"):
         fresh.run_line_magic("plotwise", "why")
-    with capture_output() as c:
+    with pytest.raises(UsageError) as e:
         fresh.run_line_magic("plotwise", "why radar")
-    assert "unknown chart kind 'radar'" in c.stderr
+    assert "unknown chart kind 'radar'" in str(e.value)
+
+
+def test_every_advise_option_has_a_magic_flag_and_the_panel_keeps_them(fresh):
+    fresh.run_line_magic("plotwise", "compare grunfeld --x firm --y invest --agg mean "
+                                      "--palette '#0072B2,#E69F00' --cmap viridis "
+                                      "--value-range 0,900 --top 2 --static")
+    a = plotwise.last()
+    assert a.request["agg"] == "mean" and a.request["value_range"] == (0.0, 900.0)
+    assert a.request["palette"] == ["#0072B2", "#E69F00"] and a.request["cmap"] == "viridis"
+    assert len(a.shown()) == 2 and a.best.stat == "mean"
+    with pytest.raises(UsageError, match="--value-range takes LOW,HIGH"):
+        fresh.run_line_magic("plotwise", "compare grunfeld --value-range 5 --static")
+    with pytest.raises(UsageError, match="unknown agg 'most'"):
+        fresh.run_line_magic("plotwise", "compare grunfeld --agg most --static")
+    from plotwise.notebook.panel import AdvicePanel
+
+    panel = AdvicePanel(a, frame_name="grunfeld")
+    panel.y.value = "value"  # a new question: the caller's other options stay
+    assert panel.advice.request["agg"] == "mean" and panel.advice.request["cmap"] == "viridis"
+    assert panel.advice.request["value_range"] == (0.0, 900.0) and panel.advice.best.y == "value"
+    plt.close("all")
