@@ -22,7 +22,13 @@ from plotwise.engine.vocab import TASKS
 from plotwise.errors import PlotwiseError
 from plotwise.pipeline import advise
 
-__version__ = "0.1.0"
+try:  # one version source: the installed package's metadata (pyproject.toml)
+    from importlib.metadata import PackageNotFoundError
+    from importlib.metadata import version as _version
+
+    __version__ = _version("plotwise")
+except PackageNotFoundError:  # pragma: no cover - run from a source tree that is not installed
+    __version__ = "0+unknown"
 
 
 def audit(fig_or_axes):

@@ -116,7 +116,10 @@ def cmd_advise(args) -> int:
 
 
 def main(argv=None) -> int:
+    from plotwise import __version__
+
     parser = argparse.ArgumentParser(prog="plotwise", description="Chart advice and chart audits.")
+    parser.add_argument("--version", action="version", version=f"plotwise {__version__}")
     sub = parser.add_subparsers(dest="command", required=True)
     p = sub.add_parser("audit", help="run a plotting script and audit every figure it creates; "
                                      "exit 1 when a severe hazard is found")
