@@ -163,4 +163,15 @@ class Advice:
     def _repr_mimebundle_(self, include=None, exclude=None):
         from plotwise.notebook.display import advice_bundle
 
-        return advice_bundle(self)
+        return advice_bundle(self, include, exclude)
+
+    def _repr_html_(self) -> str:
+        return self.html()
+
+    def save(self, path, why: tuple[str, ...] = (), sheet: bool = False) -> None:
+        """Write the advice by the file's suffix: .png (2× pixels), .svg or .pdf hold the top
+        designs side by side; .html a self-contained page (with ``why`` answers and the
+        ``sheet`` when asked for)."""
+        from plotwise.notebook.display import save_advice
+
+        save_advice(self, path, why, sheet)

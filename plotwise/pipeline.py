@@ -220,8 +220,9 @@ def open_data(df):
     return profile, sample, EngineStats(src, profile), src
 
 
-def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | None = None,
-           value_range=None, palette=None, cmap=None, top: int = 3) -> Advice:
+def advise(df=None, task: str | None = None, x=None, y=None, hue=None, *, data=None,
+           agg: str | None = None, value_range=None, palette=None, cmap=None,
+           top: int = 3) -> Advice:
     """Rank chart designs for ``task`` on ``df`` and flag what could mislead.
 
     task: one of compare, trend, proportion, correlate, distribution; None ranks across the
@@ -232,6 +233,12 @@ def advise(df, task: str | None = None, x=None, y=None, hue=None, *, agg: str | 
     matplotlib Colormap) for lightness encodings. Both are drawn and checked (colour-vision
     deficiency, lightness).
     """
+    if data is not None:  # advise(data=df, ...), as in seaborn and pandas' plotting
+        if df is not None:
+            raise PlotwiseError("give the data once: advise(df, ...) or advise(data=df, ...).")
+        df = data
+    if df is None:
+        raise PlotwiseError("advise() needs the data: advise(df, task, x=..., y=...).")
     # Huge or infinite values overflow in intermediate sums; the engine handles the non-finite
     # results itself, so numpy's RuntimeWarnings would only be noise in the user's notebook.
     with np.errstate(all="ignore"):

@@ -16,6 +16,12 @@ from plotwise.errors import PlotwiseError
 def check_column(profile: Profile, col, what: str) -> str | None:
     if col is None:
         return None
+    if hasattr(col, "shape") and hasattr(col, "dtype") or isinstance(col, (list, dict)):
+        # a Series or an array where a column name belongs: say so in one line, not its repr
+        name = getattr(col, "name", None)
+        hint = f"{what}={name!r}" if isinstance(name, str) else f"{what}='column name'"
+        raise PlotwiseError(f"{what} takes a column's name, not the column itself (got a "
+                            f"{type(col).__name__}); use {hint}.")
     label = str(col)
     if label not in profile.fields:
         names = list(profile.fields)

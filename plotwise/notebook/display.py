@@ -17,10 +17,25 @@ SEVERITY_MARK = {"severe": "!!", "warn": "! ", "info": "i "}
 SEVERITY_COLOUR = {"severe": "#B00020", "warn": "#8A5A00", "info": "#35618F"}
 
 
-def figure_png(fig) -> bytes:
+DISPLAY_SCALE = 2  # PNGs for display carry twice the pixels and are shown at their logical size
+
+
+def figure_png(fig, scale: int = 1) -> bytes:
     buf = io.BytesIO()
-    fig.savefig(buf, format="png", dpi=100)
+    fig.savefig(buf, format="png", dpi=100 * scale)
     return buf.getvalue()
+
+
+def logical_size(fig) -> tuple[int, int]:
+    """The figure's size in CSS pixels at 100 dpi (what a 2× PNG is displayed at)."""
+    w, h = fig.get_size_inches()
+    return round(w * 100), round(h * 100)
+
+
+def alt_text(advice: Advice) -> str:
+    """What the top image shows, for readers who cannot see it."""
+    shown = "; ".join(f"{i}. {d.summary()}" for i, d in enumerate(advice.shown(), 1))
+    return f"plotwise's top designs side by side: {shown}"
 
 
 def advice_text(advice: Advice, limit: int | None = None) -> str:
@@ -116,7 +131,8 @@ def profile_html(advice: Advice) -> str:
             f"<th>evidence</th></tr>{rows}</table>")
 
 
-def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: bytes | None = None) -> str:
+def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: bytes | None = None,
+                size: tuple[int, int] | None = None) -> str:
     parts = [STYLE, "<div class='pw-advice'>",
              f"<h4>plotwise advice — task: {_e(advice.task or 'any')} "
              f"({advice.profile.rows} rows, {len(advice.profile.fields)} columns)</h4>"]
@@ -126,9 +142,12 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
         parts.append(f"<p class='pw-headline'><b>In one sentence:</b> {_e(advice.headline)}</p>")
     if image:
         if png is None:
-            png = figure_png(advice.show())
+            fig = advice.show()
+            png, size = figure_png(fig, DISPLAY_SCALE), logical_size(fig)
         b64 = base64.b64encode(png).decode("ascii")
-        parts.append(f"<img alt='top designs side by side' src='data:image/png;base64,{b64}'/>")
+        width = f" width='{size[0]}'" if size else ""
+        parts.append(f"<img{width} alt='{_e(alt_text(advice))}' "
+                     f"src='data:image/png;base64,{b64}'/>")
     parts.append("<h4>Hazards</h4>" + hazards_html(advice.hazards))
     if advice.surprises:
         parts.append("<h4>Worth a second look</h4>" + surprises_html(advice.surprises))
@@ -150,13 +169,53 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
     return "".join(parts)
 
 
-def advice_bundle(advice: Advice) -> dict:
-    png = figure_png(advice.show())
-    return {
-        "text/plain": advice_text(advice, limit=10),
-        "text/html": advice_html(advice, png=png),
-        "image/png": base64.b64encode(png).decode("ascii"),
-    }
+def advice_bundle(advice: Advice, include=None, exclude=None) -> tuple[dict, dict]:
+    """The display data (and metadata) for the types the front end asks for: a terminal that
+    wants text only gets no figure drawn at all."""
+    wanted = {"text/plain", "text/html", "image/png"}
+    if include:
+        wanted &= set(include)
+    if exclude:
+        wanted -= set(exclude)
+    data: dict = {}
+    meta: dict = {}
+    if wanted & {"text/html", "image/png"}:
+        fig = advice.show()
+        png, size = figure_png(fig, DISPLAY_SCALE), logical_size(fig)
+        if "text/html" in wanted:
+            data["text/html"] = advice_html(advice, png=png, size=size)
+        if "image/png" in wanted:
+            data["image/png"] = base64.b64encode(png).decode("ascii")
+            meta["image/png"] = {"width": size[0], "height": size[1]}
+    if "text/plain" in wanted:
+        data["text/plain"] = advice_text(advice, limit=10)
+    return data, meta
+
+
+SAVE_FORMATS = (".png", ".svg", ".pdf", ".html", ".htm")
+
+
+def save_advice(advice: Advice, path, why: tuple[str, ...] = (), sheet: bool = False) -> None:
+    """Write the advice by the file's suffix: the top designs as PNG (2×), SVG or PDF, or the
+    whole advice as a self-contained HTML page."""
+    from pathlib import Path
+
+    from plotwise.errors import PlotwiseError
+
+    out = Path(path)
+    suffix = out.suffix.lower()
+    if suffix not in SAVE_FORMATS:
+        raise PlotwiseError(f"cannot save as {suffix or 'a file without a suffix'!r}; name the "
+                            f"file with one of: {', '.join(SAVE_FORMATS)}.")
+    if suffix in (".html", ".htm"):
+        out.write_text(page_html(advice, f"plotwise advice: {advice.task or 'any task'}", why,
+                                 sheet), encoding="utf-8")
+        return
+    fig = advice.show()
+    if suffix == ".png":
+        out.write_bytes(figure_png(fig, DISPLAY_SCALE))
+    else:
+        fig.savefig(out, format=suffix[1:])
 
 
 def alternatives_html(advice: Advice, why: tuple[str, ...] = (), sheet: bool = False) -> str:

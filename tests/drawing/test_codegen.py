@@ -53,7 +53,7 @@ def test_hostile_column_names_stay_inert(name, task):
 def test_mimebundle_escapes_hostile_names():
     name = "<img src=x onerror=alert(1)>"
     df = pd.DataFrame({name: list("abcab"), "v": [1.0, 2, 3, 4, 5]})
-    bundle = plotwise.advise(df, "compare")._repr_mimebundle_()
+    bundle, _ = plotwise.advise(df, "compare")._repr_mimebundle_()
     assert set(bundle) == {"text/plain", "text/html", "image/png"}
     assert name not in bundle["text/html"]
     assert "&lt;img" in bundle["text/html"]

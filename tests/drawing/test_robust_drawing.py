@@ -28,7 +28,7 @@ def test_dollar_signs_are_text_not_maths(task):
     kw = dict(x="band", y="price ($) vs cost ($)") if task in ("compare", "proportion") else {}
     a = plotwise.advise(df, task, **kw)
     fig = a.show()
-    bundle = a._repr_mimebundle_()
+    bundle, _ = a._repr_mimebundle_()
     assert bundle["image/png"]
     from matplotlib.backends.backend_agg import FigureCanvasAgg
 

@@ -131,7 +131,7 @@ def whole_way(advice, df):
     COUNT["full"] += 1
     try:
         advice.show()
-        bundle = advice._repr_mimebundle_()
+        bundle, _ = advice._repr_mimebundle_()
         assert bundle["text/html"] and bundle["image/png"]
     except PlotwiseError as exc:
         assert "could not draw" in str(exc)
