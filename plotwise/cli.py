@@ -91,21 +91,23 @@ def cmd_audit(args) -> int:
 
 def cmd_advise(args) -> int:
     from plotwise.errors import PlotwiseError
-    from plotwise.notebook.display import page_html
+    from plotwise.notebook.display import SAVE_FORMATS, save_advice
     from plotwise.pipeline import advise
 
+    out = Path(args.out)
+    if out.suffix.lower() not in SAVE_FORMATS:  # say so before a long scan, not after
+        print(f"plotwise: --out {out}: name the file with one of: {', '.join(SAVE_FORMATS)}",
+              file=sys.stderr)
+        return 2
     try:
         a = advise(args.file, args.task, x=args.x, y=args.y, hue=args.hue, agg=args.agg,
                    top=args.top)
-        page = page_html(a, f"plotwise advice for {Path(args.file).name}",
-                         why=tuple(args.why or ()), sheet=args.sheet)
+        out.parent.mkdir(parents=True, exist_ok=True)
+        save_advice(a, out, why=tuple(args.why or ()), sheet=args.sheet,
+                    title=f"plotwise advice for {Path(args.file).name}")
     except PlotwiseError as exc:
         print(f"plotwise: {exc}", file=sys.stderr)
         return 2
-    out = Path(args.out)
-    try:
-        out.parent.mkdir(parents=True, exist_ok=True)
-        out.write_text(page, encoding="utf-8")
     except OSError as exc:
         print(f"plotwise: cannot write {out}: {exc.strerror or exc}", file=sys.stderr)
         return 2
@@ -142,7 +144,9 @@ def main(argv=None) -> int:
     p.add_argument("--agg", choices=("sum", "mean", "median", "count"),
                    help="how rows are combined per category")
     p.add_argument("--top", type=int, default=3, help="designs drawn side by side (default 3)")
-    p.add_argument("--out", default="advice.html", help="the HTML page to write (default advice.html)")
+    p.add_argument("--out", default="advice.html",
+                   help="the file to write, by its suffix: .html (a self-contained page, the "
+                        "default advice.html), or .png, .svg, .pdf (the top designs)")
     p.add_argument("--why", action="append", metavar="KIND", choices=list(REGISTRY),
                    help="also answer why a KIND was not recommended (repeatable)")
     p.add_argument("--sheet", action="store_true",

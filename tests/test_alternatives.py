@@ -114,3 +114,16 @@ def test_cli_page_carries_surprises_why_not_and_the_sheet(tmp_path, capsys):
     with pytest.raises(SystemExit):
         main(["advise", str(data), "--why", "radar", "--out", str(out)])
     assert "invalid choice: 'radar'" in capsys.readouterr().err
+
+
+def test_cli_out_suffix_chooses_the_format(tmp_path, capsys):
+    from plotwise.cli import main
+
+    data = tmp_path / "grunfeld.csv"
+    grunfeld().to_csv(data, index=False)
+    out = tmp_path / "top.svg"
+    assert main(["advise", str(data), "--task", "compare", "--x", "firm", "--y", "invest",
+                 "--out", str(out)]) == 0
+    assert out.read_text(encoding="utf-8").lstrip().startswith("<?xml")
+    assert main(["advise", str(data), "--out", str(tmp_path / "top.docx")]) == 2
+    assert "name the file with one of: .png" in capsys.readouterr().err

@@ -195,7 +195,8 @@ def advice_bundle(advice: Advice, include=None, exclude=None) -> tuple[dict, dic
 SAVE_FORMATS = (".png", ".svg", ".pdf", ".html", ".htm")
 
 
-def save_advice(advice: Advice, path, why: tuple[str, ...] = (), sheet: bool = False) -> None:
+def save_advice(advice: Advice, path, why: tuple[str, ...] = (), sheet: bool = False,
+                title: str | None = None) -> None:
     """Write the advice by the file's suffix: the top designs as PNG (2×), SVG or PDF, or the
     whole advice as a self-contained HTML page."""
     from pathlib import Path
@@ -208,8 +209,8 @@ def save_advice(advice: Advice, path, why: tuple[str, ...] = (), sheet: bool = F
         raise PlotwiseError(f"cannot save as {suffix or 'a file without a suffix'!r}; name the "
                             f"file with one of: {', '.join(SAVE_FORMATS)}.")
     if suffix in (".html", ".htm"):
-        out.write_text(page_html(advice, f"plotwise advice: {advice.task or 'any task'}", why,
-                                 sheet), encoding="utf-8")
+        title = title or f"plotwise advice: {advice.task or 'any task'}"
+        out.write_text(page_html(advice, title, why, sheet), encoding="utf-8")
         return
     fig = advice.show()
     if suffix == ".png":
