@@ -18,7 +18,7 @@ demo: $(STAMP)
 	$(BIN)/python tools/export_tour.py demo_notebooks/tour.ipynb build/demo/tour.html
 
 test: $(STAMP)
-	$(BIN)/python -m pytest -q -n 2
+	$(BIN)/python -m pytest -q -n 2 --dist worksteal
 
 BROWSER_STAMP := $(VENV)/.browser-installed
 
@@ -34,7 +34,7 @@ test-browser: $(BROWSER_STAMP)
 
 soak: $(STAMP)
 	$(BIN)/python -m pytest -q -s -m soak tests/test_soak.py
-	PLOTWISE_EXAMPLES=20000 $(BIN)/python -m pytest -q -n 2 tests/engine/test_properties.py
+	PLOTWISE_EXAMPLES=20000 $(BIN)/python -m pytest -q -n 2 --dist worksteal tests/engine/test_properties.py
 
 lint: $(STAMP)
 	$(BIN)/ruff check plotwise tests tests_browser tools benchmarks
