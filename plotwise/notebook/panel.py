@@ -51,6 +51,9 @@ class AdvicePanel(widgets.VBox):
         # Re-advise on what the caller gave (a file path stays a path, so the code opens it).
         self._frame = advice._input if advice._input is not None else advice._frame()
         self._busy = False
+        # Advice and top figure per question already asked: going back to one is instant. The
+        # frame is the same object for the panel's whole life, so the answers stay valid.
+        self._cache: dict[tuple, tuple[Advice, bytes]] = {}
         req = advice.request
         # ipywidgets reads a Dropdown value of None as "nothing selected" (a blank control), so
         # "(auto)" and "any task" carry a sentinel of their own.
@@ -104,9 +107,14 @@ class AdvicePanel(widgets.VBox):
         self._show_advice()
 
     # Updates -----------------------------------------------------------------------------
-    def _show_advice(self) -> None:
+    def _key(self, a: Advice) -> tuple:
+        r = a.request
+        return tuple(str(r.get(k)) for k in ("task", "x", "y", "hue"))
+
+    def _show_advice(self, png: bytes | None = None) -> None:
         a = self.advice
-        self._top_png = figure_png(a.show())
+        self._top_png = png if png is not None else figure_png(a.show())
+        self._cache[self._key(a)] = (a, self._top_png)
         self.top_image.value = self._top_png
         self.hazards.value = hazards_html(a.hazards) + (
             "<b>Worth a second look</b>" + surprises_html(a.surprises) if a.surprises else "")
@@ -145,12 +153,26 @@ class AdvicePanel(widgets.VBox):
     def _on_question(self, change) -> None:
         if self._busy:
             return
+        asked = {"task": _chosen(self.task), "x": _chosen(self.x), "y": _chosen(self.y),
+                 "hue": _chosen(self.hue)}
+        cached = self._cache.get(tuple(str(asked[k]) for k in ("task", "x", "y", "hue")))
+        if cached is not None:  # asked before: no advising, no drawing
+            self.advice = cached[0]
+            self.message.value = ""
+            self._show_advice(cached[1])
+            return
+        controls = (self.task, self.x, self.y, self.hue, self.designs, self.bins)
+        for c in controls:
+            c.disabled = True
+        rows = self.advice.profile.rows
+        self.message.value = (f"<span class='pw-status'>Advising on {rows:,} rows "
+                              f"({_escape(self.advice.engine)}) and drawing the top designs…"
+                              "</span>")
         try:
             kept = {k: self.advice.request.get(k) for k in ("agg", "value_range", "palette",
                                                              "cmap")}
-            self.advice = advise(self._frame, _chosen(self.task), x=_chosen(self.x),
-                                 y=_chosen(self.y), hue=_chosen(self.hue), top=self.advice.top,
-                                 **kept)
+            self.advice = advise(self._frame, asked["task"], x=asked["x"], y=asked["y"],
+                                 hue=asked["hue"], top=self.advice.top, **kept)
         except PlotwiseError as exc:
             shown = self.advice.request
             cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))
@@ -159,6 +181,9 @@ class AdvicePanel(widgets.VBox):
                                   f"({_escape(self.advice.task or 'any task')}"
                                   f"{'; ' + _escape(cols) if cols else ''}).</i>")
             return
+        finally:
+            for c in controls:
+                c.disabled = False
         self.message.value = ""
         self._show_advice()
 

@@ -96,3 +96,28 @@ def test_controls_left_to_plotwise_show_auto_not_blank():
                                                                   "(auto)")
     p.task.value = "compare"
     assert p.advice.task == "compare" and p.advice.request.get("y") is None
+
+
+def test_controls_wait_with_a_status_line_and_going_back_is_from_the_cache(panel, monkeypatch):
+    import plotwise.notebook.panel as panel_module
+
+    seen = []
+    real = panel_module.advise
+
+    def watching(*args, **kw):
+        seen.append((panel.task.disabled, panel.y.disabled, panel.message.value))
+        return real(*args, **kw)
+
+    monkeypatch.setattr(panel_module, "advise", watching)
+    first = panel.top_image.value
+    panel.y.value = "value"  # a new question: advised while the controls wait
+    assert len(seen) == 1
+    task_off, y_off, status = seen[0]
+    assert task_off and y_off and "Advising on 220 rows (pandas)" in status
+    assert not panel.task.disabled and not panel.y.disabled and panel.message.value == ""
+    panel.y.value = "invest"  # back to the first question: no advising, the same image
+    assert len(seen) == 1
+    assert panel.top_image.value == first and panel.advice.best.y == "invest"
+    panel.y.value = "value"
+    assert len(seen) == 1 and panel.advice.best.y == "value"
+    assert plt.get_fignums() == []
