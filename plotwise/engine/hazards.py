@@ -20,16 +20,23 @@ from plotwise.engine.vocab import SEVERITIES, checked, severity_rank
 
 
 @dataclass
-class Hazard:
+class Finding:
+    """What a check found: a stable code, a severity and a message naming columns and numbers
+    (the common part of a Hazard and a Surprise)."""
+
     code: str
     severity: str  # a Severity: info | warn | severe
     message: str
-    fix: str
-    kinds: tuple[str, ...] = ()  # design kinds concerned; empty = the data as a whole
-    columns: tuple[str, ...] = ()
 
     def __post_init__(self) -> None:
         checked(self.severity, SEVERITIES, "severity")
+
+
+@dataclass
+class Hazard(Finding):
+    fix: str = ""
+    kinds: tuple[str, ...] = ()  # design kinds concerned; empty = the data as a whole
+    columns: tuple[str, ...] = ()
 
     def __str__(self) -> str:
         return f"[{self.severity}] {self.code}: {self.message} Fix: {self.fix}"

@@ -17,11 +17,12 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
+from plotwise.engine.hazards import Finding
 from plotwise.engine.headline import fmt
 from plotwise.engine.meaning import name_says
 from plotwise.engine.profile import FieldProfile, Profile
 from plotwise.engine.rules import NON_NEGATIVE_NAME_HINTS, SURPRISE_THRESHOLDS
-from plotwise.engine.vocab import SEVERITIES, checked
+from plotwise.engine.vocab import SEVERITIES
 from plotwise.engine.working import working_frame
 
 T = SURPRISE_THRESHOLDS
@@ -46,17 +47,14 @@ class Mark:
 
 
 @dataclass
-class Surprise:
-    code: str
-    severity: str  # info, or warn when the values cannot be right
-    message: str  # what was found: rows, numbers
-    check: str  # what to check
+class Surprise(Finding):
+    """Severity info, or warn when the values cannot be right; the message names the rows and
+    numbers found."""
+
+    check: str = ""  # what to check
     rows: tuple = ()  # index labels of the rows concerned (the first few)
     columns: tuple[str, ...] = ()
     marks: tuple[Mark, ...] = ()
-
-    def __post_init__(self) -> None:
-        checked(self.severity, SEVERITIES, "severity")
 
     def __str__(self) -> str:
         return f"[{self.code}] {self.message} Check: {self.check}"

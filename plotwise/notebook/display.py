@@ -93,33 +93,30 @@ STYLE = """
 CELL = "style='text-align:left;vertical-align:top;padding:3px 8px;border-bottom:1px solid #e3e3e3'"
 
 
-def hazards_html(hazards) -> str:
-    """The hazards as a table (inline styles, so it reads the same inside any frontend)."""
-    if not hazards:
-        return "<p class='pw-none'>No hazards found.</p>"
+def findings_html(items, kind: str, last: str, empty: str, headers: tuple[str, ...]) -> str:
+    """Hazards or surprises as a table (inline styles, so it reads the same inside any
+    frontend): severity, code, message and ``last`` (the fix, or what to check)."""
+    if not items:
+        return f"<p class='pw-none'>{empty}</p>"
     rows = "".join(
-        f"<tr class='pw-hazard' data-code='{_e(h.code)}'>"
-        f"<td {CELL}><b style='color:{SEVERITY_COLOUR[h.severity]}'>{_e(h.severity)}</b></td>"
-        f"<td {CELL}><code>{_e(h.code)}</code></td><td {CELL}>{_e(h.message)}</td>"
-        f"<td {CELL}>{_e(h.fix)}</td></tr>"
-        for h in hazards)
-    head = "".join(f"<th {CELL}>{t}</th>" for t in ("severity", "code", "what could mislead", "fix"))
+        f"<tr class='pw-{kind}' data-code='{_e(x.code)}'>"
+        f"<td {CELL}><b style='color:{SEVERITY_COLOUR[x.severity]}'>{_e(x.severity)}</b></td>"
+        f"<td {CELL}><code>{_e(x.code)}</code></td><td {CELL}>{_e(x.message)}</td>"
+        f"<td {CELL}>{_e(getattr(x, last))}</td></tr>"
+        for x in items)
+    head = "".join(f"<th {CELL}>{t}</th>" for t in headers)
     return f"<table style='border-collapse:collapse'><tr>{head}</tr>{rows}</table>"
+
+
+def hazards_html(hazards) -> str:
+    return findings_html(hazards, "hazard", "fix", "No hazards found.",
+                         ("severity", "code", "what could mislead", "fix"))
 
 
 def surprises_html(surprises) -> str:
-    """What in the data deserves a second look, as a table (inline styles, like the hazards)."""
-    if not surprises:
-        return "<p class='pw-none'>Nothing unexpected found.</p>"
-    rows = "".join(
-        f"<tr class='pw-surprise' data-code='{_e(x.code)}'>"
-        f"<td {CELL}><b style='color:{SEVERITY_COLOUR[x.severity]}'>{_e(x.severity)}</b></td>"
-        f"<td {CELL}><code>{_e(x.code)}</code></td><td {CELL}>{_e(x.message)}</td>"
-        f"<td {CELL}>{_e(x.check)}</td></tr>"
-        for x in surprises)
-    head = "".join(f"<th {CELL}>{t}</th>" for t in ("severity", "code", "what was found",
-                                                     "what to check"))
-    return f"<table style='border-collapse:collapse'><tr>{head}</tr>{rows}</table>"
+    """What in the data deserves a second look."""
+    return findings_html(surprises, "surprise", "check", "Nothing unexpected found.",
+                         ("severity", "code", "what was found", "what to check"))
 
 
 def profile_html(advice: Advice) -> str:
