@@ -15,11 +15,11 @@ def _bar(c: Ctx) -> list[str]:
         return _grouped_bar(c)
     lines = _ordered_series(c, d.x)
     if d.horizontal:
-        lines.append(f'sns.barplot(x=v.values, y=labels, orient="h", color={MAIN_COLOUR!r}, '
+        lines.append(f'sns.barplot(saturation=1, x=v.values, y=labels, orient="h", color={MAIN_COLOUR!r}, '
                      f'ax={c.ax})')
         lines += _labels(c, c.measure_label(), d.x) + _style(c, "x")
     else:
-        lines.append(f'sns.barplot(x=labels, y=v.values, color={MAIN_COLOUR!r}, ax={c.ax})')
+        lines.append(f'sns.barplot(saturation=1, x=labels, y=v.values, color={MAIN_COLOUR!r}, ax={c.ax})')
         lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
         f = c.f(d.x)
         dates = f.level == "temporal" and not f.is_integer
@@ -125,11 +125,11 @@ def _grouped_bar(c: Ctx) -> list[str]:
     lines.append(f"hues = {c.levels(d.hue, 'v')}")  # the same order in every panel
     pal = c.palette(c.f(d.hue).distinct, "len(hues)")
     if d.horizontal:
-        lines.append(f'sns.barplot(data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=order, '
+        lines.append(f'sns.barplot(saturation=1, data=v, x={vn!r}, y={d.x!r}, hue={d.hue!r}, order=order, '
                      f'hue_order=hues, palette={pal}, orient="h", errorbar=None, ax={c.ax})')
         lines += _labels(c, c.measure_label(), d.x) + _style(c, "x")
     else:
-        lines.append(f'sns.barplot(data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, order=order, '
+        lines.append(f'sns.barplot(saturation=1, data=v, x={d.x!r}, y={vn!r}, hue={d.hue!r}, order=order, '
                      f'hue_order=hues, palette={pal}, errorbar=None, ax={c.ax})')
         lines += _labels(c, d.x, c.measure_label()) + _style(c, "y")
         if c.dates(d.x) and c.f(d.x).distinct > 6:

@@ -147,7 +147,8 @@ def _count_bar(c: Ctx) -> list[str]:
                 f"order = sorted({c.data}[{d.x!r}].unique())" if f.level != "nominal"
                 else f"order = list({c.grouped([d.x])}.sort_values(ascending=False, kind=\"stable\").index)",
                 f"v[{d.x!r}] = v[{d.x!r}].astype(str)",
-                f"sns.barplot(data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, order=[str(o) for o in order], "
+                f"sns.barplot(saturation=1, data=v, x={d.x!r}, y=\"rows\", hue={d.hue!r}, "
+                "order=[str(o) for o in order], "
                 f"hue_order={c.levels(d.hue, 'v')}, "
                 f"palette={c.palette(c.f(d.hue).distinct, f'v[{d.hue!r}].nunique()')}, "
                 f"errorbar=None, ax={c.ax})",
@@ -158,9 +159,10 @@ def _count_bar(c: Ctx) -> list[str]:
         lines = [f"v = {c.grouped([d.x])}"]
     lines.append("labels = [f\"{k:g}\" if isinstance(k, float) else str(k) for k in v.index]")
     if d.horizontal:
-        lines.append(f"sns.barplot(x=v.values, y=labels, orient=\"h\", color={MAIN_COLOUR!r}, ax={c.ax})")
+        lines.append(f"sns.barplot(saturation=1, x=v.values, y=labels, orient=\"h\", "
+                     f"color={MAIN_COLOUR!r}, ax={c.ax})")
         return lines + _labels(c, "number of rows", d.x) + _style(c, "x")
-    lines.append(f"sns.barplot(x=labels, y=v.values, color={MAIN_COLOUR!r}, ax={c.ax})")
+    lines.append(f"sns.barplot(saturation=1, x=labels, y=v.values, color={MAIN_COLOUR!r}, ax={c.ax})")
     return lines + _labels(c, d.x, "number of rows") + _style(c, "y")
 
 

@@ -164,7 +164,8 @@ def _pie(c: FitCase) -> None:
 def _grids(c: FitCase) -> None:
     cells = c.ncat * max(c.nhue, 1)
     if c.d.kind == "grouped-bar" and cells > FIT_LIMITS["dense_grid_bars"]:
-        c.penalise("dense_grid", f"{c.ncat}×{c.nhue} bars is a dense grid; consider a heatmap")
+        c.penalise("dense_grid", f"{c.ncat}×{c.nhue} bars is a dense grid; a dot chart (one "
+                   "line per category) or a heatmap reads better")
     if c.d.kind == "heatmap" and c.d.task != "correlate" and cells < FIT_LIMITS["small_heatmap_cells"]:
         c.penalise("small_heatmap", "too few cells for a heatmap to beat plain bars")
 

@@ -98,7 +98,7 @@ FIT_FACTORS = {
 # Sizes the data-fit rules compare with (common practice).
 FIT_LIMITS = {
     "flat_area_spread": 0.5,  # an area filled from zero flattens changes smaller than this share
-    "dense_grid_bars": 60,  # grouped bars beyond this many are a dense grid
+    "dense_grid_bars": 40,  # grouped bars beyond this many are a dense grid (common practice)
     "small_heatmap_cells": 9,  # fewer cells than this: plain bars read better
     "line_min_points": 3,  # a line needs this many time points to show a trend
     # With no task stated, fewer time points than this are left to compare (common practice).

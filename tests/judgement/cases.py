@@ -39,6 +39,12 @@ PARTS = {"bar", "dot", "stacked-bar-100", "pie"}
 NO_SHARES = {"pie", "stacked-bar-100", "stacked-bar"}
 
 CASES = [
+    # --- dense comparisons ----------------------------------------------------------------
+    case("barley-varieties-by-site", data.barley,
+         dict(task="compare", x="variety", y="yield", hue="site"), {"dot"},
+         "10 varieties × 6 sites is 60 bars: one line of dots per variety reads better; "
+         "Cleveland's Visualizing Data (1993) draws this very table as a dot plot (from memory)",
+         stat="mean"),
     # --- measure meaning: count rows without y, never sum what does not add up -------------
     case("weather-days-per-type", data.seattle, dict(task="proportion", x="weather"), PARTS,
          "days per weather type: without y the parts are row counts, not summed rain "

@@ -15,6 +15,12 @@ def _vega(name: str) -> pd.DataFrame:
 
 
 @cache
+def barley() -> pd.DataFrame:
+    """Barley yields of 10 varieties at 6 sites in 1931 and 1932 (vega_datasets, bundled)."""
+    return _vega("barley")
+
+
+@cache
 def seattle() -> pd.DataFrame:
     """Daily Seattle weather 2012–2015 (vega_datasets, bundled)."""
     return _vega("seattle_weather")
