@@ -189,6 +189,28 @@ def advice_bundle(advice: Advice, include=None, exclude=None) -> tuple[dict, dic
     return data, meta
 
 
+# A static copy of the advice shown beside the live panel, so that a saved notebook keeps what the
+# controls last produced. While the panel lives it hides the copy (no duplicate); when the panel
+# cannot render (reopened without a kernel) the copy shows and the failed widget's output in the
+# same cell is hidden. Where <style> is stripped (untrusted notebooks) both simply show.
+COMPANION_STYLE = (
+    "<style>"
+    ".jp-OutputArea:has(.pw-panel) .pw-static,.output_area:has(.pw-panel) .pw-static,"
+    ".jp-Cell-outputArea:has(.pw-panel) .pw-static{display:none}"
+    ".jp-OutputArea:has(.pw-static) .jp-OutputArea-output"
+    "[data-mime-type='application/vnd.jupyter.widget-view+json']:not(:has(.pw-panel))"
+    "{display:none}"
+    "</style>")
+
+
+def companion_bundle(advice: Advice, png: bytes, size: tuple[int, int] | None = None) -> dict:
+    """The static copy's display data: the whole advice as HTML (image inline) and as text."""
+    return {"text/html": COMPANION_STYLE + "<div class='pw-static'>"
+                         + advice_html(advice, png=png, size=size) + "</div>",
+            "image/png": base64.b64encode(png).decode("ascii"),
+            "text/plain": advice_text(advice, limit=10)}
+
+
 SAVE_FORMATS = (".png", ".svg", ".pdf", ".html", ".htm")
 
 

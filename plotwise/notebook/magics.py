@@ -18,7 +18,7 @@ from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
 from plotwise.pipeline import advise
 
-_LAST: dict = {"advice": None, "name": "df"}
+_LAST: dict = {"advice": None, "name": "df", "panel": None}
 
 
 def last() -> Advice | None:
@@ -156,11 +156,27 @@ class PlotwiseMagics(Magics):
         if use_panel:
             try:
                 from plotwise.notebook.panel import AdvicePanel
-
-                display(AdvicePanel(advice, frame_name=name))
-                return
             except ImportError:  # no ipywidgets: the static display serves
-                pass
+                AdvicePanel = None
+            if AdvicePanel is not None:
+                # The advice is ordinary display data (saved with the notebook, read by
+                # nbconvert and viewers); the panel's controls update it in place.
+                from plotwise.notebook.display import companion_bundle
+
+                handle = {}
+
+                def keep(a: Advice, png: bytes) -> None:
+                    _remember(a, name)
+                    bundle = companion_bundle(a, png)
+                    if "h" in handle:
+                        handle["h"].update(bundle, raw=True)
+
+                panel = AdvicePanel(advice, frame_name=name, on_advice=keep)
+                _LAST["panel"] = panel
+                handle["h"] = display(companion_bundle(advice, panel._top_png), raw=True,
+                                      display_id=True)
+                display(panel)
+                return
         display(advice)
 
     def _advise(self, frame, args, task, name) -> None:

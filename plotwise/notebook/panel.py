@@ -45,8 +45,11 @@ def _chosen(control):
 class AdvicePanel(widgets.VBox):
     """An ipywidgets panel showing one Advice and letting the reader change it."""
 
-    def __init__(self, advice: Advice, frame_name: str = "df"):
+    def __init__(self, advice: Advice, frame_name: str = "df", on_advice=None):
+        """``on_advice(advice, png)`` is called with each new advice the controls produce (the
+        magics keep a static copy of it in the notebook with it)."""
         self.advice = advice
+        self._on_advice = on_advice
         self.frame_name = frame_name if frame_name.isidentifier() else "df"
         # Re-advise on what the caller gave (a file path stays a path, so the code opens it).
         self._frame = advice._input if advice._input is not None else advice._frame()
@@ -115,6 +118,8 @@ class AdvicePanel(widgets.VBox):
         a = self.advice
         self._top_png = png if png is not None else figure_png(a.show())
         self._cache[self._key(a)] = (a, self._top_png)
+        if self._on_advice is not None:
+            self._on_advice(a, self._top_png)
         self.top_image.value = self._top_png
         self.hazards.value = hazards_html(a.hazards) + (
             "<b>Worth a second look</b>" + surprises_html(a.surprises) if a.surprises else "")
@@ -201,6 +206,10 @@ class AdvicePanel(widgets.VBox):
     def _repr_mimebundle_(self, **kwargs):
         bundle = super()._repr_mimebundle_(**kwargs) or {}
         bundle = dict(bundle)
+        if self._on_advice is not None:  # a static copy sits beside the panel: no second one
+            bundle["text/plain"] = ("plotwise panel (interactive); the advice it shows is kept "
+                                    "as static output beside it.")
+            return bundle
         bundle["text/html"] = advice_html(self.advice, png=self._top_png)
         bundle["image/png"] = base64.b64encode(self._top_png).decode("ascii")
         bundle["text/plain"] = self.advice.text()

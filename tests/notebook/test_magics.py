@@ -128,12 +128,29 @@ def test_code_n_puts_runnable_code_in_next_cell(fresh, monkeypatch):
     assert "no design 99" in str(e.value)
 
 
-def test_panel_shown_by_default(fresh):
+def test_panel_shown_by_default_beside_a_static_copy_it_keeps_current(fresh, monkeypatch):
+    from plotwise.notebook.magics import _LAST
+
     with capture_output() as c:
         fresh.run_line_magic("plotwise", "compare grunfeld --x firm --y invest")
-    bundle = outputs(c)[0]
-    assert "application/vnd.jupyter.widget-view+json" in bundle
-    assert "text/html" in bundle and "image/png" in bundle  # static fallback for exports
+    static, panel = outputs(c)[:2]
+    # the advice as ordinary display data (kept in the saved notebook), then the controls
+    assert "text/html" in static and "image/png" in static and "pw-static" in static["text/html"]
+    assert "application/vnd.jupyter.widget-view+json" in panel and "text/html" not in panel
+    # the controls update the static copy in place: same display id, update=True
+    sent = []
+
+    def record(data, metadata=None, source=None, *, transient=None, update=False, **kw):
+        sent.append((data, transient, update))
+
+    monkeypatch.setattr(fresh.display_pub, "publish", record)
+    live = _LAST["panel"]
+    live.task.value = "trend"
+    live.x.value = "year"
+    updates = [(d, t) for d, t, u in sent if u]
+    assert updates and updates[-1][1]["display_id"]
+    assert "task: trend" in updates[-1][0]["text/plain"]
+    assert plotwise.last().task == "trend"  # %plotwise code N follows the panel too
 
 
 def test_magics_take_engine_data_and_file_paths(fresh, tmp_path):
