@@ -75,7 +75,10 @@ def lab(tmp_path_factory):
     write_settings(settings)
     nbformat.write(panel_notebook(), root / "panel.ipynb")
     port, token = free_port(), secrets.token_hex(16)
-    env = dict(os.environ, JUPYTERLAB_SETTINGS_DIR=str(settings))
+    # settings and workspaces of this server only (a remembered workspace would reopen
+    # notebooks of an earlier run beside the one a test opens)
+    env = dict(os.environ, JUPYTERLAB_SETTINGS_DIR=str(settings),
+               JUPYTERLAB_WORKSPACES_DIR=str(tmp_path_factory.mktemp("lab-workspaces")))
     env.pop("MPLBACKEND", None)  # the kernel must use the inline backend, as users' do
     log = open(root.parent / "jupyter-lab.log", "w")
     proc = subprocess.Popen(

@@ -198,7 +198,8 @@ def modified_z(values: np.ndarray) -> np.ndarray | None:
     return T["modified_z_constant"] * (values - med) / mad
 
 
-@surprise("group-outlier", "a value far outside its own group (modified z-score above 3.5)")
+@surprise("group-outlier", "a value far outside its own group (modified z-score above 3.5, "
+          "and above what chance gives among that many values)")
 def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
     value, group = ctx.value_and_group()
     if not value or not group:
@@ -212,6 +213,11 @@ def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
     if skewed and not (d[value] > 0).all():
         return []
     found: list[tuple[float, int, object, float, float]] = []  # |z|, position, group, value, median
+    # Among many values some pass 3.5 by chance alone: the bar is also the largest |z| that n
+    # normal values reach by chance once in 20 (a Bonferroni bound, common practice).
+    from scipy.stats import norm
+
+    bar = max(T["modified_z"], float(norm.isf(0.025 / max(len(d), 1))))
     for g, part in d.groupby(group, observed=True, sort=False):
         if len(part) < T["outlier_min_group"]:
             continue
@@ -220,7 +226,7 @@ def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
         if z is None:
             continue
         med = float(np.median(v))
-        for i in np.flatnonzero(np.abs(z) > T["modified_z"]):
+        for i in np.flatnonzero(np.abs(z) > bar):
             found.append((abs(float(z[i])), int(part.index[i]), g, float(v[i]), med))
     if not found or len(found) > max(2, T["outlier_max_share"] * len(d)):
         return []
@@ -233,7 +239,8 @@ def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
         "group-outlier", "info",
         f"{row_list(rows)}: {value!r} far outside {'its' if len(rows) == 1 else 'their'} own "
         f"{group!r} group; row {_label(rows[0])} holds {fmt(v0)} where the median of "
-        f"{_label(g0)} is {fmt(m0)} (modified z = {z0:.1f}; above 3.5 is an outlier).",
+        f"{_label(g0)} is {fmt(m0)} (modified z = {z0:.1f}; beyond {bar:.1f} is far out among "
+        f"{len(d):,} values).",
         "the value (a typing or unit error?) and the group label of "
         f"{'that row' if len(rows) == 1 else 'those rows'}.",
         rows=rows, columns=(group, value), marks=marks)]
