@@ -62,9 +62,13 @@ def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
         changed = digest(page)
         assert changed and changed != before
         page.keyboard.press("Control+s")
-        end = time.time() + 30
+        end, text = time.time() + 30, ""
         while time.time() < end:
-            saved = json.loads((lab.root / "saved.ipynb").read_text(encoding="utf-8"))
+            try:
+                saved = json.loads((lab.root / "saved.ipynb").read_text(encoding="utf-8"))
+            except json.JSONDecodeError:  # caught while the server writes it
+                time.sleep(0.5)
+                continue
             text = json.dumps(saved["cells"][1].get("outputs", []))
             if "passengers" in text and "pw-static" in text:
                 break
@@ -84,3 +88,81 @@ def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
         assert all(not errors.nth(i).is_visible() for i in range(errors.count()))
     finally:
         page.close()
+
+
+# WCAG 2.1 contrast of every visible text node under `root`: the text colour over the background
+# composited up the tree (relative luminance and ratio as WCAG 2.1 defines them).
+CONTRAST_JS = """(sel) => {
+  const parse = (c) => { const m = c.match(/rgba?\\(([^)]+)\\)/); if (!m) return null;
+    const p = m[1].split(',').map(Number); return {r: p[0], g: p[1], b: p[2], a: p.length > 3 ? p[3] : 1}; };
+  const over = (c, b) => ({r: c.r * c.a + b.r * (1 - c.a), g: c.g * c.a + b.g * (1 - c.a),
+                           b: c.b * c.a + b.b * (1 - c.a)});
+  const lum = ({r, g, b}) => { const f = (v) => { v /= 255;
+    return v <= 0.03928 ? v / 12.92 : Math.pow((v + 0.055) / 1.055, 2.4); };
+    return 0.2126 * f(r) + 0.7152 * f(g) + 0.0722 * f(b); };
+  const background = (el) => { const layers = [];
+    for (let e = el; e; e = e.parentElement) { const c = parse(getComputedStyle(e).backgroundColor);
+      if (c && c.a > 0) { layers.push(c); if (c.a >= 1) break; } }
+    let base = {r: 255, g: 255, b: 255};
+    for (let i = layers.length - 1; i >= 0; i--) base = over(layers[i], base);
+    return base; };
+  const out = []; let checked = 0;
+  for (const root of document.querySelectorAll(sel)) {
+    const walk = document.createTreeWalker(root, NodeFilter.SHOW_TEXT);
+    while (walk.nextNode()) { const t = walk.currentNode; const el = t.parentElement;
+      if (!t.textContent.trim() || !el || !el.getClientRects().length) continue;
+      if (getComputedStyle(el).visibility === 'hidden') continue;
+      const bg = background(el); const fg = over(parse(getComputedStyle(el).color), bg);
+      const [a, b] = [lum(fg), lum(bg)];
+      const ratio = (Math.max(a, b) + 0.05) / (Math.min(a, b) + 0.05); checked++;
+      if (ratio < 4.5) out.push(t.textContent.trim().slice(0, 40) + ' ' + ratio.toFixed(2)); } }
+  return {checked, low: out};
+}"""
+
+
+def set_theme(page, name):
+    page.locator(".lm-MenuBar-itemLabel", has_text="Settings").click()
+    page.locator(".lm-Menu-itemLabel", has_text="Theme").first.hover()
+    page.locator(".lm-Menu-itemLabel", has_text=name).first.click()
+    page.wait_for_function(f"document.body.dataset.jpThemeName === {name!r}", timeout=30_000)
+    time.sleep(1)
+
+
+@pytest.mark.parametrize("theme", ["JupyterLab Light", "JupyterLab Dark"])
+def test_text_contrast_in_light_and_dark(lab, browser, shots, theme):
+    nb = new_notebook(cells=[new_code_cell(SETUP),
+                             new_code_cell("%plotwise compare sailings --x pier --y passengers")],
+                      metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
+                                               "language": "python"}})
+    name = f"contrast-{theme.split()[-1].lower()}.ipynb"
+    nbformat.write(nb, lab.root / name)
+    page = browser.new_page(viewport={"width": 1280, "height": 900})
+    try:
+        page.goto(f"{lab.url}/lab/tree/{name}?token={lab.token}")
+        page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
+        lab.wait_idle()
+        set_theme(page, theme)
+        page.locator(f"{NB} .jp-Cell .jp-InputArea-editor").first.click()
+        page.keyboard.press("Shift+Enter")
+        page.keyboard.press("Shift+Enter")
+        page.wait_for_selector(f"{NB} .pw-panel img.pw-top", timeout=180_000)
+        lab.wait_idle()
+        live = page.evaluate(CONTRAST_JS, f"{NB} .pw-panel")
+        page.locator(f"{NB} .pw-panel").scroll_into_view_if_needed()
+        page.screenshot(path=str(shots / f"08-panel-{theme.split()[-1].lower()}.png"))
+        page.keyboard.press("Control+s")
+        time.sleep(2)
+        shut_down_kernels(lab)
+        page.reload()
+        page.wait_for_selector(STATIC_IMG, state="visible", timeout=120_000)
+        time.sleep(1)
+        stored = page.evaluate(CONTRAST_JS, f"{NB} .pw-static")
+        page.locator(f"{NB} .pw-static table").first.scroll_into_view_if_needed()
+        page.screenshot(path=str(shots / f"08-static-{theme.split()[-1].lower()}.png"))
+        assert live["checked"] > 20 and stored["checked"] > 50
+        assert live["low"] == [] and stored["low"] == [], (live["low"], stored["low"])
+    finally:
+        try:
+            set_theme(page, "JupyterLab Light")  # the next test meets the default theme
+        finally:
+            page.close()

@@ -79,10 +79,10 @@ STYLE = """
 <style>
 .pw-advice{font-family:system-ui,-apple-system,Segoe UI,sans-serif;font-size:13px;max-width:1400px}
 .pw-advice table{border-collapse:collapse;margin:6px 0}
-.pw-advice th,.pw-advice td{border-bottom:1px solid #e3e3e3;padding:3px 8px;
+.pw-advice th,.pw-advice td{border-bottom:1px solid var(--jp-border-color2,#e3e3e3);padding:3px 8px;
   text-align:left !important;vertical-align:top}
-.pw-advice th{background:#f5f5f5}
-.pw-advice .pw-x{color:#888}
+.pw-advice th{background:var(--jp-layout-color2,#f5f5f5);color:var(--jp-ui-font-color1,#1a1a1a)}
+.pw-advice .pw-x{font-style:italic}
 .pw-advice img{max-width:100%;height:auto}
 .pw-advice h4{margin:12px 0 4px 0}
 .pw-advice ul{margin:2px 0 6px 0}
@@ -90,7 +90,11 @@ STYLE = """
 """
 
 
-CELL = "style='text-align:left;vertical-align:top;padding:3px 8px;border-bottom:1px solid #e3e3e3'"
+# Colours come from JupyterLab's theme variables (light fallbacks for exported pages), so the text
+# keeps its contrast in Light and Dark themes; severity is a coloured stripe beside words in the
+# text colour, never coloured text.
+CELL = ("style='text-align:left;vertical-align:top;padding:3px 8px;"
+        "border-bottom:1px solid var(--jp-border-color2,#e3e3e3)'")
 
 
 def findings_html(items, kind: str, last: str, empty: str, headers: tuple[str, ...]) -> str:
@@ -100,7 +104,8 @@ def findings_html(items, kind: str, last: str, empty: str, headers: tuple[str, .
         return f"<p class='pw-none'>{empty}</p>"
     rows = "".join(
         f"<tr class='pw-{kind}' data-code='{_e(x.code)}'>"
-        f"<td {CELL}><b style='color:{SEVERITY_COLOUR[x.severity]}'>{_e(x.severity)}</b></td>"
+        f"<td {CELL}><b style='border-left:4px solid {SEVERITY_COLOUR[x.severity]};"
+        f"padding-left:5px'>{_e(x.severity)}</b></td>"
         f"<td {CELL}><code>{_e(x.code)}</code></td><td {CELL}>{_e(x.message)}</td>"
         f"<td {CELL}>{_e(getattr(x, last))}</td></tr>"
         for x in items)
@@ -160,7 +165,8 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
                  f"<th>score</th><th>reason</th></tr>{rows}</table>")
     if profile:
         parts.append("<h4>Columns</h4>" + profile_html(advice))
-    parts.append("<p style='color:#777;font-size:11px'>plotwise's advice is heuristic; charts "
+    parts.append("<p style='color:var(--jp-content-font-color2,#555);font-size:11px'>"
+                 "plotwise's advice is heuristic; charts "
                  "behind medical, safety or financial decisions deserve review by someone "
                  "accountable for them.</p></div>")
     return "".join(parts)

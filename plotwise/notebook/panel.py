@@ -147,7 +147,7 @@ class AdvicePanel(widgets.VBox):
             self.detail_image.value = figure_png(ax.figure)
             self.message.value = ""
         except PlotwiseError as exc:
-            self.message.value = f"<span style='color:#B00020'>{_escape(exc)}</span>"
+            self.message.value = f"<span style='color:var(--jp-error-color1,#B00020)'>{_escape(exc)}</span>"
         items = "".join(f"<li>{_escape(r)}</li>" for r in d.reasons)
         own = "".join(f"<li><b>{_escape(h.code)}</b>: {_escape(h.message)} <i>Fix:</i> "
                       f"{_escape(h.fix)}</li>" for h in d.hazards)
@@ -181,7 +181,8 @@ class AdvicePanel(widgets.VBox):
         except PlotwiseError as exc:
             shown = self.advice.request
             cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))
-            self.message.value = (f"<span style='color:#B00020'>{_escape(exc)}</span><br>"
+            self.message.value = (f"<span style='color:var(--jp-error-color1,#B00020)'>"
+                                  f"{_escape(exc)}</span><br>"
                                   "<i>Still showing the previous advice "
                                   f"({_escape(self.advice.task or 'any task')}"
                                   f"{'; ' + _escape(cols) if cols else ''}).</i>")
