@@ -99,6 +99,9 @@ def cmd_advise(args) -> int:
         print(f"plotwise: --out {out}: name the file with one of: {', '.join(SAVE_FORMATS)}",
               file=sys.stderr)
         return 2
+    if not args.quiet:
+        print(f"plotwise: advising on {args.file} (DuckDB scans it)…", file=sys.stderr,
+              flush=True)
     try:
         a = advise(args.file, args.task, x=args.x, y=args.y, hue=args.hue, agg=args.agg,
                    top=args.top)
@@ -149,6 +152,7 @@ def main(argv=None) -> int:
                         "default advice.html), or .png, .svg, .pdf (the top designs)")
     p.add_argument("--why", action="append", metavar="KIND", choices=list(REGISTRY),
                    help="also answer why a KIND was not recommended (repeatable)")
+    p.add_argument("--quiet", action="store_true", help="no status line on stderr")
     p.add_argument("--sheet", action="store_true",
                    help="also draw every expressive design small, best first")
     p.set_defaults(func=cmd_advise)

@@ -118,9 +118,18 @@ def advice_options(func):
         argument("--value-range", dest="value_range", help="the value axis you plan, LOW,HIGH "
                  "(checked, e.g. for a truncated baseline), e.g. --value-range 0,120"),
         argument("--static", action="store_true", help="static display, no widget panel"),
+        argument("--quiet", action="store_true", help="no status line while large or engine "
+                 "data are advised"),
     ]):
         func = decorator(func)
     return func
+
+
+LARGE_ROWS = 1_000_000  # frames from this size on get a status line while advised
+
+
+def slow_to_advise(frame) -> bool:
+    return not isinstance(frame, pd.DataFrame) or len(frame) >= LARGE_ROWS
 
 
 def extra_options(args) -> dict:
@@ -180,12 +189,24 @@ class PlotwiseMagics(Magics):
         display(advice)
 
     def _advise(self, frame, args, task, name) -> None:
+        from IPython.display import display
+
+        status = None
+        if not args.quiet and slow_to_advise(frame):
+            # engine data or a large frame: say what is being computed while it runs
+            what = (f"{len(frame):,} rows" if isinstance(frame, pd.DataFrame)
+                    else f"the {type(frame).__name__} {name!r}" if not isinstance(frame, str)
+                    else repr(frame))
+            status = display({"text/plain": f"plotwise: advising on {what}…"}, raw=True,
+                             display_id=True)
         try:
             advice = advise(frame, task, x=args.x, y=args.y, hue=args.hue, top=args.top,
                             **extra_options(args))
         except PlotwiseError as exc:
             refuse(str(exc))
-            return
+        finally:
+            if status is not None:
+                status.update({"text/plain": ""}, raw=True)
         self._show(advice, name, not args.static)
 
     @magic_arguments("plotwise")
@@ -203,9 +224,12 @@ class PlotwiseMagics(Magics):
         did not recommend KIND; %plotwise sheet draws every expressive design of it small."""
         args = parse_argstring(self.plotwise_line, line)
         words = list(args.words)
-        if words and words[0] == "code":
+        # 'code', 'why' and 'sheet' are sub-commands, unless the line names only a DataFrame
+        # called so (a frame named `code` can still be advised on)
+        lone_frame = len(words) == 1 and is_frame(self.shell.user_ns.get(words[0]))
+        if words and words[0] == "code" and not lone_frame:
             return self._code(words[1:])
-        if words and words[0] in ("why", "sheet"):
+        if words and words[0] in ("why", "sheet") and not lone_frame:
             return self._alternatives(words[0], words[1:])
         task, rest = split_positionals(words)
         ns = self.shell.user_ns

@@ -212,3 +212,25 @@ def test_every_advise_option_has_a_magic_flag_and_the_panel_keeps_them(fresh):
     assert panel.advice.request["agg"] == "mean" and panel.advice.request["cmap"] == "viridis"
     assert panel.advice.request["value_range"] == (0.0, 900.0) and panel.advice.best.y == "value"
     plt.close("all")
+
+
+def test_a_frame_named_code_is_advised_and_engine_data_get_a_status_line(fresh, tmp_path):
+    fresh.user_ns["code"] = grunfeld()
+    with capture_output():
+        fresh.run_line_magic("plotwise", "code --static")
+    assert plotwise.last().profile.rows == 220
+    path = tmp_path / "g.parquet"
+    grunfeld().to_parquet(path)
+    try:
+        with capture_output() as c:
+            fresh.run_line_magic("plotwise", f"compare {path} --x firm --y invest --static")
+        texts = [o.data.get("text/plain", "") for o in c.outputs]
+        assert texts[0].startswith("plotwise: advising on")
+        assert "" in texts  # the status line is emptied (updated in place) once advice is there
+        with capture_output() as c:
+            fresh.run_line_magic("plotwise", f"compare {path} --x firm --y invest --static "
+                                             "--quiet")
+        assert not any(o.data.get("text/plain", "").startswith("plotwise: advising")
+                       for o in c.outputs)
+    finally:
+        del fresh.user_ns["code"]
