@@ -32,7 +32,7 @@ def test_exported_tour_reads_offline(browser, shots):
     page.goto(TOUR.as_uri())
     page.wait_for_load_state("load")
     images = page.evaluate("""Array.from(document.images).map(i => [i.complete, i.naturalWidth, i.alt])""")
-    figures = [i for i in images if i[2] == "top designs side by side"]
+    figures = [i for i in images if i[2].startswith("plotwise's top designs side by side: 1. ")]
     assert len(figures) >= 8, images[:5]
     assert all(done and width > 600 for done, width, _ in figures)
     tables = page.locator(".pw-advice table").count()
