@@ -27,6 +27,20 @@ from plotwise.demo import demo_data
 sailings = demo_data()["sailings"]"""
 
 
+# The SHA-256 of an image as the page holds it (compared before and after a change).
+DIGEST_JS = """async (sel) => {
+  const img = document.querySelector(sel);
+  if (!img || !img.src) return null;
+  const buf = await (await fetch(img.src)).arrayBuffer();
+  const d = await crypto.subtle.digest('SHA-256', buf);
+  return Array.from(new Uint8Array(d)).map(b => b.toString(16).padStart(2, '0')).join('');
+}"""
+
+
+def digest(page, sel):
+    return page.evaluate(DIGEST_JS, sel)
+
+
 def free_port() -> int:
     with socket.socket() as s:
         s.bind(("127.0.0.1", 0))

@@ -6,25 +6,15 @@ import pytest
 
 # Steps share one page; each first puts the panel in the state it needs (set_request), so
 # none depends on another having run before it.
-pytestmark = pytest.mark.filterwarnings("ignore::DeprecationWarning")
+from conftest import digest
 
-DIGEST_JS = """async (sel) => {
-  const img = document.querySelector(sel);
-  if (!img || !img.src) return null;
-  const buf = await (await fetch(img.src)).arrayBuffer();
-  const d = await crypto.subtle.digest('SHA-256', buf);
-  return Array.from(new Uint8Array(d)).map(b => b.toString(16).padStart(2, '0')).join('');
-}"""
+pytestmark = pytest.mark.filterwarnings("ignore::DeprecationWarning")
 
 
 class State:
     page = None
     lab = None
     console_errors: list = []
-
-
-def digest(page, sel):
-    return page.evaluate(DIGEST_JS, sel)
 
 
 def wait_change(page, sel, before, timeout=60):

@@ -7,24 +7,17 @@ import urllib.request
 
 import nbformat
 import pytest
-from conftest import SETUP
+from conftest import SETUP, digest
 from nbformat.v4 import new_code_cell, new_notebook
 
 pytestmark = pytest.mark.filterwarnings("ignore::DeprecationWarning")
 
-DIGEST_JS = """async (sel) => {
-  const img = document.querySelector(sel);
-  if (!img || !img.src) return null;
-  const buf = await (await fetch(img.src)).arrayBuffer();
-  const d = await crypto.subtle.digest('SHA-256', buf);
-  return Array.from(new Uint8Array(d)).map(b => b.toString(16).padStart(2, '0')).join('');
-}"""
 NB = ".jp-NotebookPanel:not(.lm-mod-hidden)"  # the notebook in front
 STATIC_IMG = f"{NB} .pw-static img"
 
 
-def digest(page):
-    return page.evaluate(DIGEST_JS, STATIC_IMG)
+def static_digest(page):
+    return digest(page, STATIC_IMG)
 
 
 def shut_down_kernels(lab) -> None:
@@ -42,7 +35,7 @@ def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
     nbformat.write(nb, lab.root / "saved.ipynb")
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
-        page.goto(f"{lab.url}/lab/tree/saved.ipynb?token={lab.token}")
+        page.goto(f"{lab.url}/lab/tree/saved.ipynb?reset&token={lab.token}")  # this notebook alone
         page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
         lab.wait_idle()
         page.locator(f"{NB} .jp-Cell .jp-InputArea-editor").first.click()
@@ -53,13 +46,13 @@ def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
         # While the panel lives, the static copy is there but hidden (no duplicate advice).
         assert page.locator(STATIC_IMG).count() == 1
         assert not page.locator(STATIC_IMG).is_visible()
-        before = digest(page)
+        before = static_digest(page)
         page.locator(f"{NB} .pw-y select").first.select_option(label="passengers")
         lab.wait_idle()
         end = time.time() + 60
-        while digest(page) == before and time.time() < end:
+        while static_digest(page) == before and time.time() < end:
             time.sleep(0.3)
-        changed = digest(page)
+        changed = static_digest(page)
         assert changed and changed != before
         page.keyboard.press("Control+s")
         end, text = time.time() + 30, ""
@@ -81,7 +74,7 @@ def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
         time.sleep(1)
         page.locator(STATIC_IMG).scroll_into_view_if_needed()
         page.screenshot(path=str(shots / "07-reopened.png"))
-        assert digest(page) == changed  # the advice the controls last produced
+        assert static_digest(page) == changed  # the advice the controls last produced
         hazards = page.locator(f"{NB} .pw-static").inner_text()
         assert "Hazards" in hazards and "passengers" in hazards
         errors = page.locator("text=Error displaying widget")
@@ -138,7 +131,7 @@ def test_text_contrast_in_light_and_dark(lab, browser, shots, theme):
     nbformat.write(nb, lab.root / name)
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
-        page.goto(f"{lab.url}/lab/tree/{name}?token={lab.token}")
+        page.goto(f"{lab.url}/lab/tree/{name}?reset&token={lab.token}")
         page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
         lab.wait_idle()
         set_theme(page, theme)

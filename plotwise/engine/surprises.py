@@ -60,16 +60,22 @@ class Surprise(Finding):
         return f"[{self.code}] {self.message} Check: {self.check}"
 
 
-@dataclass
-class SurpriseContext:
-    """One question the shown designs ask: a task and its columns, over the caller's rows."""
+@dataclass(frozen=True)
+class Question:
+    """What a shown design asks: its task, columns and statistic."""
 
-    profile: Profile
     task: str
     x: str | None
     y: str | None
     hue: str | None
     stat: str
+
+
+@dataclass(frozen=True, eq=False)
+class SurpriseContext(Question):
+    """One question the shown designs ask, over the caller's rows."""
+
+    profile: Profile
     working: pd.DataFrame  # the used columns, converted; positions as in ``index``
     index: pd.Index  # the caller's row labels
     frame: pd.DataFrame = field(repr=False, default=None)  # the caller's frame (all columns)
@@ -569,15 +575,6 @@ def _clusters_explained(ctx: SurpriseContext, minority: np.ndarray, used: np.nda
 # ------------------------------------------------------------------------------------------------
 # Running the checks
 # ------------------------------------------------------------------------------------------------
-@dataclass(frozen=True)
-class Question:
-    task: str
-    x: str | None
-    y: str | None
-    hue: str | None
-    stat: str
-
-
 def find_surprises(df: pd.DataFrame, profile: Profile, questions: list[Question]) -> list[Surprise]:
     """The surprises in ``df`` (a pandas frame) for the questions the shown designs ask, worst
     first, one entry per finding."""
