@@ -147,10 +147,14 @@ class Advice:
 
         return advice_text(self)
 
-    def html(self, image: bool = True, profile: bool = False) -> str:
-        from plotwise.notebook.display import advice_html
+    def html(self, image: bool = True, profile: bool = False, why: tuple[str, ...] = (),
+             sheet: bool = False) -> str:
+        """The advice as HTML; ``why`` adds 'why not' answers for those kinds, ``sheet`` the
+        sheet of every expressive design."""
+        from plotwise.notebook.display import advice_html, alternatives_html
 
-        return advice_html(self, image=image, profile=profile)
+        return advice_html(self, image=image, profile=profile) + alternatives_html(self, why,
+                                                                                   sheet)
 
     def __str__(self) -> str:
         return self.text()

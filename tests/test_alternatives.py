@@ -127,3 +127,11 @@ def test_cli_out_suffix_chooses_the_format(tmp_path, capsys):
     assert out.read_text(encoding="utf-8").lstrip().startswith("<?xml")
     assert main(["advise", str(data), "--out", str(tmp_path / "top.docx")]) == 2
     assert "name the file with one of: .png" in capsys.readouterr().err
+
+
+def test_static_html_carries_why_not_and_the_sheet_when_asked(firms):
+    plain = firms.html()
+    assert "Why not" not in plain and "Every design worth a look" not in plain
+    asked = firms.html(why=("pie",), sheet=True)
+    assert "Why not a pie?" in asked and "Every design worth a look" in asked
+    assert asked.count("data:image/png;base64,") == 3
