@@ -72,6 +72,16 @@ class Lab:
         with urllib.request.urlopen(f"{self.url}{path}?token={self.token}", timeout=10) as r:
             return json.load(r)
 
+    def wait_session(self, path: str, timeout: float = 180) -> None:
+        """Wait until the notebook at ``path`` has a kernel and that kernel is idle."""
+        end = time.time() + timeout
+        while time.time() < end:
+            for s in self.api("/api/sessions"):
+                if s.get("path") == path and s["kernel"]["execution_state"] == "idle":
+                    return
+            time.sleep(0.5)
+        raise TimeoutError(f"no idle kernel for {path}")
+
     def wait_idle(self, timeout: float = 180) -> None:
         end = time.time() + timeout
         while time.time() < end:

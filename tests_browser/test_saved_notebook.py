@@ -20,6 +20,21 @@ def static_digest(page):
     return digest(page, STATIC_IMG)
 
 
+def open_and_run(page, lab, name, theme=None) -> None:
+    """Open the notebook alone (a reset workspace), wait for its kernel, run all cells from the
+    Run menu (keystrokes sent while the page settles can be lost), wait for the panel."""
+    page.goto(f"{lab.url}/lab/tree/{name}?reset&token={lab.token}")
+    page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
+    lab.wait_session(name)
+    time.sleep(1)  # let the page settle (Lab keeps polling, so no "network idle" state)
+    if theme:
+        set_theme(page, theme)
+    page.locator(".lm-MenuBar-itemLabel", has_text="Run").first.click()
+    page.locator(".lm-Menu-itemLabel", has_text="Run All Cells").first.click()
+    page.wait_for_selector(f"{NB} .pw-panel img.pw-top", timeout=180_000)
+    lab.wait_idle()
+
+
 def shut_down_kernels(lab) -> None:
     for k in lab.api("/api/kernels"):
         req = urllib.request.Request(f"{lab.url}/api/kernels/{k['id']}?token={lab.token}",
@@ -35,14 +50,7 @@ def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
     nbformat.write(nb, lab.root / "saved.ipynb")
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
-        page.goto(f"{lab.url}/lab/tree/saved.ipynb?reset&token={lab.token}")  # this notebook alone
-        page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
-        lab.wait_idle()
-        page.locator(f"{NB} .jp-Cell .jp-InputArea-editor").first.click()
-        page.keyboard.press("Shift+Enter")
-        page.keyboard.press("Shift+Enter")
-        page.wait_for_selector(f"{NB} .pw-panel img.pw-top", timeout=180_000)
-        lab.wait_idle()
+        open_and_run(page, lab, "saved.ipynb")
         # While the panel lives, the static copy is there but hidden (no duplicate advice).
         assert page.locator(STATIC_IMG).count() == 1
         assert not page.locator(STATIC_IMG).is_visible()
@@ -131,15 +139,7 @@ def test_text_contrast_in_light_and_dark(lab, browser, shots, theme):
     nbformat.write(nb, lab.root / name)
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
-        page.goto(f"{lab.url}/lab/tree/{name}?reset&token={lab.token}")
-        page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
-        lab.wait_idle()
-        set_theme(page, theme)
-        page.locator(f"{NB} .jp-Cell .jp-InputArea-editor").first.click()
-        page.keyboard.press("Shift+Enter")
-        page.keyboard.press("Shift+Enter")
-        page.wait_for_selector(f"{NB} .pw-panel img.pw-top", timeout=180_000)
-        lab.wait_idle()
+        open_and_run(page, lab, name, theme)
         live = page.evaluate(CONTRAST_JS, f"{NB} .pw-panel")
         page.locator(f"{NB} .pw-panel").scroll_into_view_if_needed()
         page.screenshot(path=str(shots / f"08-panel-{theme.split()[-1].lower()}.png"))
