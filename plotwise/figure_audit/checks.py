@@ -193,10 +193,14 @@ def _is_categorical(axis) -> bool:
 
 
 def _text_ticks(axis) -> bool:
+    if axis.get_scale() != "linear":  # log and other scales are numeric by construction
+        return False
     labels = [t.get_text() for t in axis.get_ticklabels() if t.get_text()]
     if not labels:
         return False
     def numeric(s):
+        if s.startswith("$") and s.endswith("$") and any(ch.isdigit() for ch in s):
+            return True  # a formatter's maths: 10², 2×10³
         try:
             float(s.replace("−", "-").replace(",", ""))
             return True

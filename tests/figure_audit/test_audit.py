@@ -118,6 +118,13 @@ def test_lines_over_categories_seaborn_pandas():
     plt.close("all")
     months = df.assign(city=["Jan", "Feb", "Mar", "Apr"])
     assert "line-over-categories" not in codes(sns.lineplot(data=months, x="city", y="v").figure)
+    plt.close("all")
+    # Regression: a cumulative line on a log axis (ticks 10⁰, 10¹ written as maths) is numeric
+    fig, ax = plt.subplots()
+    ax.step([1, 3, 10, 40, 200], [0.2, 0.4, 0.6, 0.8, 1.0])
+    ax.set_xscale("log")
+    assert "line-over-categories" not in codes(fig)
+    plt.close(fig)
 
 
 def test_overplotting_and_area_encoding():
