@@ -83,7 +83,8 @@ class Advice:
     def why_not(self, kind: str):
         """Why plotwise did not recommend a ``kind`` here: whether it can show these columns,
         its rank and score parts beside the top design's, its hazards, the better choice. The
-        answer's ``draw()`` draws it, titled as not recommended, when it states nothing false."""
+        answer's ``draw()`` draws it, titled as not recommended, whenever a design of that kind
+        exists for these data."""
         from plotwise.alternatives import why_not
 
         return why_not(self, kind)
