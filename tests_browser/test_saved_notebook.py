@@ -159,3 +159,32 @@ def test_text_contrast_in_light_and_dark(lab, browser, shots, theme):
             set_theme(page, "JupyterLab Light")  # the next test meets the default theme
         finally:
             page.close()
+
+
+def test_run_all_stops_at_a_bad_magic(lab, browser, shots):
+    nb = new_notebook(cells=[new_code_cell(SETUP),
+                             new_code_cell("%plotwise explain sailings"),
+                             new_code_cell("after = 'this cell ran'\nafter")],
+                      metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
+                                               "language": "python"}})
+    nbformat.write(nb, lab.root / "runall.ipynb")
+    page = browser.new_page(viewport={"width": 1280, "height": 900})
+    try:
+        page.goto(f"{lab.url}/lab/tree/runall.ipynb?reset&token={lab.token}")
+        page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
+        lab.wait_session("runall.ipynb")
+        time.sleep(1)
+        page.locator(".lm-MenuBar-itemLabel", has_text="Run").first.click()
+        page.locator(".lm-Menu-itemLabel", has_text="Run All Cells").first.click()
+        page.wait_for_function(
+            "document.querySelector('.jp-NotebookPanel:not(.lm-mod-hidden)').innerText"
+            ".includes('UsageError')", timeout=120_000)
+        lab.wait_idle()
+        time.sleep(1)
+        text = page.locator(NB).inner_text()
+        page.screenshot(path=str(shots / "09-run-all-stops.png"))
+        outputs = " ".join(page.locator(f"{NB} .jp-OutputArea").all_inner_texts())
+        assert "unknown task 'explain'" in outputs and "Traceback" not in text
+        assert "this cell ran" not in outputs  # Run All stopped at the bad magic
+    finally:
+        page.close()

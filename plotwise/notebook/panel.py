@@ -76,14 +76,17 @@ class AdvicePanel(widgets.VBox):
         self.message = widgets.HTML()
         self.top_image = widgets.Image(format="png", layout=widgets.Layout(width="100%", max_width="1400px"))
         self.hazards = widgets.HTML()
-        self.designs = widgets.Select(options=[], rows=12, description="",
+        # Every control carries a label of its own (a <label> for assistive technology too).
+        self.designs = widgets.Select(options=[], rows=12, description="design",
+                                      style={"description_width": "initial"},
                                       layout=widgets.Layout(width="360px"))
         self.detail_image = widgets.Image(format="png", layout=widgets.Layout(max_width="620px"))
         self.bins = widgets.IntSlider(value=20, min=3, max=120, description="bins",
                                       continuous_update=False,
                                       layout=widgets.Layout(width="360px", display="none"))
         self.reasons = widgets.HTML(layout=widgets.Layout(max_width="620px"))
-        self.code = widgets.Textarea(layout=widgets.Layout(width="100%", height="220px"))
+        self.code = widgets.Textarea(description="code", style={"description_width": "initial"},
+                                     layout=widgets.Layout(width="100%", height="220px"))
         for control in (self.task, self.x, self.y, self.hue):
             control.observe(self._on_question, names="value")
         # Stable class names for styling and for browser tests.
