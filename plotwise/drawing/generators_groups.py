@@ -292,7 +292,19 @@ def _heatmap(c: Ctx) -> list[str]:
                     f"cmap=mpl.colormaps[{c.cmap()}], "
                     f"cbar=True, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                     ] + _labels(c, d.x, d.y) + _style(c, None)
-        return [f"t = pd.crosstab({c.data}[{d.y!r}], {c.data}[{d.x!r}])",
+        # A category against a many-valued number: the number in ten equal bins (one row or
+        # column per distinct value would draw a cell per row of the data), high values on top.
+        many = [bool(c.f(v) and c.f(v).level == "quantitative" and c.f(v).distinct > 12)
+                for v in (d.y, d.x)]
+        lines = [f"{b} = pd.cut({c.data}[{v!r}], 10)" for b, v, m in zip("rc", (d.y, d.x), many)
+                 if m]
+        rows, cols = (b if m else f"{c.data}[{v!r}]" for b, v, m in zip("rc", (d.y, d.x), many))
+        lines.append(f"t = pd.crosstab({rows}, {cols})")
+        if many[0]:  # empty bins stay, as rows of zeros; high values on top
+            lines.append("t = t.reindex(r.cat.categories[::-1], fill_value=0)")
+        if many[1]:
+            lines.append("t = t.reindex(columns=c.cat.categories, fill_value=0)")
+        return lines + [
                 f"sns.heatmap(t, cmap={c.cmap()}, annot=t.size <= 80, fmt=\"d\", "
                 f"linewidths=0.5, cbar_kws={{\"label\": \"rows\"}}, ax={c.ax})",
                 ] + _labels(c, d.x, d.y)

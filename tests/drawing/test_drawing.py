@@ -263,3 +263,22 @@ def test_any_colormap_name_draws_every_lightness_design(cmap):
             assert any(len(ax.collections) or ax.images for ax in fig.axes)
             drawn += 1
     assert drawn >= 2
+
+
+def test_category_against_many_valued_number_is_counted_in_ten_bins():
+    # statsmodels' Grunfeld investment data: 'firm' (10 firms) against 'invest', a number with
+    # about 200 distinct values. One heatmap row per distinct value would draw a cell per row
+    # of the data; the number goes in ten equal bins (checked with numpy's histogram, whose
+    # equal-width edges pd.cut shares apart from its 0.1% widening of the outer edges).
+    from matplotlib.collections import QuadMesh
+
+    d = grunfeld()
+    a = plotwise.advise(d, "correlate", x="firm", y="invest")
+    design = a.design("heatmap")
+    fig = Figure()
+    a.draw(design, ax=fig.subplots())
+    mesh = next(c for c in fig.axes[0].collections if isinstance(c, QuadMesh))
+    counts = np.asarray(mesh.get_array(), dtype=float).reshape(10, -1)  # rows: bins, high on top
+    assert counts.shape == (10, d["firm"].nunique())
+    per_bin = np.histogram(d["invest"].dropna(), bins=10)[0]
+    np.testing.assert_array_equal(counts.sum(axis=1)[::-1], per_bin)
