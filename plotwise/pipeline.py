@@ -17,6 +17,7 @@ from plotwise.engine.checking import run_checks
 from plotwise.engine.design import Design, Roles
 from plotwise.engine.hazards import Hazard, HazardContext, by_severity
 from plotwise.engine.meaning import measure_reason
+from plotwise.engine.memo import memo_get
 from plotwise.engine.plan import histogram_bins, mark_single_values, plan_design
 from plotwise.engine.profile import Profile, profile_frame
 from plotwise.engine.roles import check_roles, choose_roles
@@ -247,7 +248,7 @@ def advise(df=None, task: str | None = None, x=None, y=None, hue=None, *, data=N
 
 def _advise(df, task, x, y, hue, agg, value_range, palette, cmap, top) -> Advice:
     req = check_request(task, x, y, hue, agg, value_range, palette, cmap, top)
-    profile, frame, exact, src = open_data(df)
+    profile, frame, exact, src = memo_get(("opened",), lambda: open_data(df), about=df)
     check_roles(profile, x, y, hue)
     designs: list[Design] = []
     wide: list[tuple[str, Hazard]] = []

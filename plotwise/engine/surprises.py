@@ -20,6 +20,7 @@ import pandas as pd
 from plotwise.engine.hazards import Finding
 from plotwise.engine.headline import fmt
 from plotwise.engine.meaning import name_says
+from plotwise.engine.memo import memo_get, within_one_call
 from plotwise.engine.profile import FieldProfile, Profile
 from plotwise.engine.rules import NON_NEGATIVE_NAME_HINTS, SURPRISE_THRESHOLDS
 from plotwise.engine.vocab import SEVERITIES
@@ -204,12 +205,30 @@ def modified_z(values: np.ndarray) -> np.ndarray | None:
     return T["modified_z_constant"] * (values - med) / mad
 
 
+def grouped_modified_z(values: pd.Series, groups: pd.Series) -> np.ndarray:
+    """``modified_z`` of every value within its own group, in one grouped pass (NaN where a
+    group's MAD is 0)."""
+    codes = pd.factorize(groups)[0]
+    v = values.to_numpy(dtype=float)
+    med = pd.Series(v).groupby(codes).median().to_numpy()[codes]
+    mad = pd.Series(np.abs(v - med)).groupby(codes).median().to_numpy()[codes]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        z = T["modified_z_constant"] * (v - med) / mad
+    z[~np.isfinite(mad) | (mad == 0)] = np.nan
+    return z
+
+
 @surprise("group-outlier", "a value far outside its own group (modified z-score above 3.5, "
           "and above what chance gives among that many values)")
 def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
     value, group = ctx.value_and_group()
     if not value or not group:
         return []
+    return memo_get(("group-outlier", value, group), lambda: _far_in_group(ctx, value, group),
+                    about=ctx.frame)
+
+
+def _far_in_group(ctx: SurpriseContext, value: str, group: str) -> list[Surprise]:
     d = ctx.working[[group, value]].dropna()
     f = ctx.field(value)
     # The modified z-score assumes a roughly symmetric spread. A heavy right tail of positive
@@ -224,16 +243,18 @@ def _group_outlier(ctx: SurpriseContext) -> list[Surprise]:
     from scipy.stats import norm
 
     bar = max(T["modified_z"], float(norm.isf(0.025 / max(len(d), 1))))
-    for g, part in d.groupby(group, observed=True, sort=False):
-        if len(part) < T["outlier_min_group"]:
-            continue
-        v = part[value].to_numpy(dtype=float)
-        z = modified_z(np.log10(v) if skewed else v)
-        if z is None:
-            continue
-        med = float(np.median(v))
-        for i in np.flatnonzero(np.abs(z) > bar):
-            found.append((abs(float(z[i])), int(part.index[i]), g, float(v[i]), med))
+    v = d[value].astype(float)
+    z = grouped_modified_z(np.log10(v) if skewed else v, d[group])
+    z[d.groupby(group, observed=True, sort=False)[value].transform("size").to_numpy()
+      < T["outlier_min_group"]] = np.nan
+    with np.errstate(invalid="ignore"):
+        far = np.flatnonzero(np.abs(z) > bar)
+    if len(far):
+        medians = v.groupby(d[group], observed=True, sort=False).median()
+        for i in far:
+            g = d[group].iat[i]
+            found.append((abs(float(z[i])), int(d.index[i]), g, float(v.iat[i]),
+                          float(medians[g])))
     if not found or len(found) > max(2, T["outlier_max_share"] * len(d)):
         return []
     found.sort(key=lambda t: -t[0])
@@ -453,16 +474,14 @@ def _repeated_rows(ctx: SurpriseContext) -> list[Surprise]:
     frame = ctx.frame
     if frame is None or not 3 <= len(frame) <= DUPLICATES_UP_TO or frame.columns.has_duplicates:
         return []
-    try:
-        dup = frame.duplicated(keep="first").to_numpy()
-    except TypeError:  # unhashable values (lists, dicts): no row comparison
+    found = memo_get(("repeated-rows",), lambda: _exact_repeats(frame), about=frame)
+    if found is None:
         return []
-    if not dup.any() or chance_repeats(frame) > T["duplicate_chance"] * dup.sum():
+    pos, twin_pos = found
+    if chance_repeats(frame) > T["duplicate_chance"] * len(pos):
         return []
-    pos = np.flatnonzero(dup)
     rows = ctx.rows(pos)
-    first = frame.iloc[: pos[0] + 1].duplicated(keep="last").to_numpy()
-    twin = ctx.index[int(np.flatnonzero(first)[0])]
+    twin = ctx.index[twin_pos]
     which = (f"row {_label(rows[0])} repeats row {_label(twin)}" if twin != rows[0] else
              f"the label {_label(twin)} is on both copies")
     return [Surprise(
@@ -471,6 +490,29 @@ def _repeated_rows(ctx: SurpriseContext) -> list[Surprise]:
         f"in every column ({which}).",
         "whether each row is a separate item; drop repeats with df.drop_duplicates() if they "
         "were loaded twice.", rows=rows[:NAMED])]
+
+
+def _exact_repeats(frame: pd.DataFrame) -> tuple[np.ndarray, int] | None:
+    """(positions of the rows that repeat an earlier row in every column, position of the row
+    the first of them repeats), or None. Rows are hashed first (pandas' row hash, one pass);
+    only rows whose hash occurs twice are compared exactly, so a hash collision never counts."""
+    try:
+        hashes = pd.util.hash_pandas_object(frame, index=False).to_numpy()
+        maybe = np.flatnonzero(pd.Series(hashes).duplicated(keep=False).to_numpy())
+    except (TypeError, ValueError):  # values pandas cannot hash (lists beside numbers...)
+        maybe = np.arange(len(frame))
+    if len(maybe) == 0:
+        return None
+    try:
+        few = frame.iloc[maybe]
+        dup = few.duplicated(keep="first").to_numpy()
+    except TypeError:  # unhashable values (lists, dicts): no row comparison
+        return None
+    if not dup.any():
+        return None
+    first = int(np.flatnonzero(dup)[0])
+    twin = int(np.flatnonzero(few.iloc[: first + 1].duplicated(keep="last").to_numpy())[0])
+    return maybe[dup], int(maybe[twin])
 
 
 def _repeated_keys(ctx: SurpriseContext) -> list[Surprise]:
@@ -501,20 +543,25 @@ def _repeated_keys(ctx: SurpriseContext) -> list[Surprise]:
 
 @surprise("unit-mix", "a positive measure with two clusters a power of ten apart (two units)")
 def _unit_mix(ctx: SurpriseContext) -> list[Surprise]:
-    from scipy.signal import find_peaks
-    from scipy.stats import gaussian_kde
-
     col = ctx.y if ctx.task in ("compare", "trend", "proportion") else ctx.x
     if ctx.task == "correlate" or ctx.level(col) != "quantitative" or col not in ctx.working:
         return []
+    key = ("unit-mix", col, ctx.x if ctx.task == "trend" else None, ctx.value_and_group()[1])
+    return memo_get(key, lambda: _two_units(ctx, col), about=ctx.frame)
+
+
+def _two_units(ctx: SurpriseContext, col: str) -> list[Surprise]:
+    from scipy.signal import find_peaks
+    from scipy.stats import gaussian_kde
+
     v = ctx.working[col].to_numpy(dtype=float, na_value=np.nan)
     pos_ok = np.isfinite(v) & (v > 0)
     if pos_ok.sum() < T["unit_min_values"] or pos_ok.sum() < 0.95 * np.isfinite(v).sum():
         return []
     lv = np.log10(v[pos_ok])
-    if np.ptp(lv) < 0.8 or len(np.unique(lv)) < 10:
-        return []
     sample = lv if len(lv) <= 5000 else np.random.default_rng(0).choice(lv, 5000, replace=False)
+    if np.ptp(lv) < 0.8 or len(np.unique(sample)) < 10:
+        return []
     try:
         kde = gaussian_kde(sample, bw_method="silverman")
     except (np.linalg.LinAlgError, ValueError):
@@ -578,6 +625,15 @@ def _clusters_explained(ctx: SurpriseContext, minority: np.ndarray, used: np.nda
 def find_surprises(df: pd.DataFrame, profile: Profile, questions: list[Question]) -> list[Surprise]:
     """The surprises in ``df`` (a pandas frame) for the questions the shown designs ask, worst
     first, one entry per finding."""
+    with within_one_call(df):
+        out = _ask(df, profile, questions)
+    seen: dict[tuple[str, str], Surprise] = {}
+    for s in out:
+        seen.setdefault((s.code, s.message), s)
+    return sorted(seen.values(), key=lambda s: -SEVERITIES.index(s.severity))
+
+
+def _ask(df: pd.DataFrame, profile: Profile, questions: list[Question]) -> list[Surprise]:
     out: list[Surprise] = []
     for q in dict.fromkeys(questions):
         cols = [c for c in dict.fromkeys([q.x, q.y, q.hue]) if c and c in profile.fields]
@@ -585,7 +641,4 @@ def find_surprises(df: pd.DataFrame, profile: Profile, questions: list[Question]
                               working=working_frame(df, profile, cols), index=df.index, frame=df)
         for c in SURPRISE_CHECKS:
             out += c.func(ctx)
-    seen: dict[tuple[str, str], Surprise] = {}
-    for s in out:
-        seen.setdefault((s.code, s.message), s)
-    return sorted(seen.values(), key=lambda s: -SEVERITIES.index(s.severity))
+    return out

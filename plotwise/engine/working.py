@@ -11,6 +11,7 @@ from functools import lru_cache
 import numpy as np
 import pandas as pd
 
+from plotwise.engine.memo import memo_get
 from plotwise.engine.profile import FieldProfile, Profile
 
 _NUMPY_NUMBERS = {"int8", "int16", "int32", "int64", "uint8", "uint16", "uint32", "uint64",
@@ -76,7 +77,9 @@ def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.
     data = {}
     for label in columns:
         f = profile.fields[label]
-        data[label] = convert(df[f.name], f).reset_index(drop=True)
+        data[label] = memo_get(("converted", label),
+                               lambda f=f: convert(df[f.name], f).reset_index(drop=True),
+                               about=df)
     return pd.DataFrame(data, copy=False)
 
 

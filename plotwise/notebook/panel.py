@@ -14,6 +14,7 @@ import ipywidgets as widgets
 
 from plotwise.advice import Advice
 from plotwise.drawing.codegen import short
+from plotwise.engine.memo import FrameMemo, using
 from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
 from plotwise.notebook.display import advice_html, figure_png, hazards_html, surprises_html
@@ -57,6 +58,9 @@ class AdvicePanel(widgets.VBox):
         # Advice and top figure per question already asked: going back to one is instant. The
         # frame is the same object for the panel's whole life, so the answers stay valid.
         self._cache: dict[tuple, tuple[Advice, bytes]] = {}
+        # The frame's profile, converted columns and whole-frame findings, kept between
+        # questions (valid while the frame keeps its identity, shape, columns and dtypes).
+        self._memo = FrameMemo(self._frame)
         req = advice.request
         # ipywidgets reads a Dropdown value of None as "nothing selected" (a blank control), so
         # "(auto)" and "any task" carry a sentinel of their own.
@@ -179,8 +183,9 @@ class AdvicePanel(widgets.VBox):
         try:
             kept = {k: self.advice.request.get(k) for k in ("agg", "value_range", "palette",
                                                              "cmap")}
-            self.advice = advise(self._frame, asked["task"], x=asked["x"], y=asked["y"],
-                                 hue=asked["hue"], top=self.advice.top, **kept)
+            with using(self._memo, self._frame):
+                self.advice = advise(self._frame, asked["task"], x=asked["x"], y=asked["y"],
+                                     hue=asked["hue"], top=self.advice.top, **kept)
         except PlotwiseError as exc:
             shown = self.advice.request
             cols = ", ".join(f"{k} = {shown[k]}" for k in ("x", "y", "hue") if shown.get(k))

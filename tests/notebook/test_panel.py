@@ -121,3 +121,18 @@ def test_controls_wait_with_a_status_line_and_going_back_is_from_the_cache(panel
     panel.y.value = "value"
     assert len(seen) == 1 and panel.advice.best.y == "value"
     assert plt.get_fignums() == []
+
+
+def test_panel_profiles_its_frame_once(monkeypatch):
+    import plotwise.pipeline as pipeline
+
+    p = AdvicePanel(plotwise.advise(grunfeld(), "compare", x="firm", y="invest"), "grunfeld")
+    opened = []
+    real = pipeline.open_data
+    monkeypatch.setattr(pipeline, "open_data", lambda df: opened.append(1) or real(df))
+    p.y.value = "value"
+    p.task.value = "distribution"
+    p.task.value = "compare"
+    p.y.value = "capital"
+    assert p.advice.designs[0].y == "capital"
+    assert len(opened) == 1
