@@ -45,6 +45,8 @@ bench: $(STAMP)
 	MPLBACKEND=Agg $(BIN)/python benchmarks/engines.py
 	MPLBACKEND=Agg $(BIN)/python benchmarks/odd_inputs.py
 	MPLBACKEND=Agg $(BIN)/python benchmarks/sheet.py
+	MPLBACKEND=Agg $(BIN)/python benchmarks/panel.py
+	MPLBACKEND=Agg $(BIN)/python benchmarks/first_call.py
 
 clean:
 	rm -rf $(VENV) build

@@ -117,6 +117,27 @@ def test_engine_runs_without_matplotlib_in_a_fresh_interpreter():
     assert out.stdout.strip() == "[]", out.stdout + out.stderr
 
 
+def test_advise_does_not_import_scipy_signal():
+    # scipy.signal's import alone took 0.7-1.2 s of a first advise() here, scipy.stats' about
+    # 0.9 s; the engine counts peaks and estimates densities itself (checked against scipy in
+    # tests/engine/test_reference_numerics.py). seaborn, once drawing, imports scipy.stats.
+    code = (
+        "import sys\n"
+        "import numpy as np, pandas as pd\n"
+        "import plotwise\n"
+        "rng = np.random.default_rng(0)\n"
+        "df = pd.DataFrame({'g': rng.choice(list('abc'), 500), 'v': rng.lognormal(size=500)})\n"
+        "for task in ('compare', 'distribution'):\n"
+        "    plotwise.advise(df, task, x='g' if task == 'compare' else 'v',\n"
+        "                    y='v' if task == 'compare' else None)\n"
+        "print('scipy.signal' in sys.modules, 'scipy.stats' in sys.modules,\n"
+        "      'seaborn' in sys.modules)\n"
+    )
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    signal, stats, seaborn = out.stdout.split()
+    assert signal == "False" and stats == seaborn, out.stdout + out.stderr
+
+
 def _readme_table(heading: str) -> list[list[str]]:
     part = README.split(heading, 1)[1].split("\n## ", 1)[0]
     rows = [line for line in part.splitlines() if line.startswith("| `")]

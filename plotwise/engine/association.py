@@ -21,16 +21,25 @@ class Fit:
     r2_quadratic: float | None
 
 
-def fit_summary(x, y) -> Fit | None:
-    from scipy.stats import pearsonr, spearmanr
+def pearson_spearman(x: np.ndarray, y: np.ndarray) -> tuple[float, float]:
+    """Pearson's r and Spearman's rho (Pearson's r of the ranks, ties given their average
+    rank): the statistics of scipy.stats.pearsonr and spearmanr, without importing
+    scipy.stats for them."""
+    import pandas as pd
 
+    r = float(np.corrcoef(x, y)[0, 1])
+    rx = pd.Series(x).rank(method="average").to_numpy()
+    ry = pd.Series(y).rank(method="average").to_numpy()
+    return float(np.clip(r, -1, 1)), float(np.clip(np.corrcoef(rx, ry)[0, 1], -1, 1))
+
+
+def fit_summary(x, y) -> Fit | None:
     x, y = np.asarray(x, float), np.asarray(y, float)
     ok = np.isfinite(x) & np.isfinite(y)
     x, y = x[ok], y[ok]
     if len(x) < 4 or np.ptp(x) == 0 or np.ptp(y) == 0:
         return None
-    r = float(pearsonr(x, y).statistic)
-    rho = float(spearmanr(x, y).statistic)
+    r, rho = pearson_spearman(x, y)
     r2q = None
     if len(np.unique(x)) >= 4:
         coef = np.polyfit(x, y, 2)

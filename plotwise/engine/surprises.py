@@ -240,9 +240,9 @@ def _far_in_group(ctx: SurpriseContext, value: str, group: str) -> list[Surprise
     found: list[tuple[float, int, object, float, float]] = []  # |z|, position, group, value, median
     # Among many values some pass 3.5 by chance alone: the bar is also the largest |z| that n
     # normal values reach by chance once in 20 (a Bonferroni bound, common practice).
-    from scipy.stats import norm
+    from statistics import NormalDist
 
-    bar = max(T["modified_z"], float(norm.isf(0.025 / max(len(d), 1))))
+    bar = max(T["modified_z"], -NormalDist().inv_cdf(0.025 / max(len(d), 1)))
     v = d[value].astype(float)
     z = grouped_modified_z(np.log10(v) if skewed else v, d[group])
     z[d.groupby(group, observed=True, sort=False)[value].transform("size").to_numpy()
@@ -551,8 +551,7 @@ def _unit_mix(ctx: SurpriseContext) -> list[Surprise]:
 
 
 def _two_units(ctx: SurpriseContext, col: str) -> list[Surprise]:
-    from scipy.signal import find_peaks
-    from scipy.stats import gaussian_kde
+    from plotwise.engine.shape import prominent_peaks, silverman_density
 
     v = ctx.working[col].to_numpy(dtype=float, na_value=np.nan)
     pos_ok = np.isfinite(v) & (v > 0)
@@ -562,13 +561,11 @@ def _two_units(ctx: SurpriseContext, col: str) -> list[Surprise]:
     sample = lv if len(lv) <= 5000 else np.random.default_rng(0).choice(lv, 5000, replace=False)
     if np.ptp(lv) < 0.8 or len(np.unique(sample)) < 10:
         return []
-    try:
-        kde = gaussian_kde(sample, bw_method="silverman")
-    except (np.linalg.LinAlgError, ValueError):
-        return []
     grid = np.linspace(lv.min(), lv.max(), 512)
-    dens = kde(grid)
-    peaks, props = find_peaks(np.concatenate([[0.0], dens, [0.0]]), prominence=0.1 * dens.max())
+    dens = silverman_density(sample, grid)
+    if dens is None:
+        return []
+    peaks, _ = prominent_peaks(np.concatenate([[0.0], dens, [0.0]]), 0.1 * dens.max())
     if len(peaks) != 2:
         return []
     a, b = grid[peaks - 1]

@@ -6,7 +6,7 @@ floats, infinities as missing). The conversion is written once, as expression te
 from __future__ import annotations
 
 import warnings
-from functools import lru_cache
+from functools import lru_cache, partial
 
 import numpy as np
 import pandas as pd
@@ -74,12 +74,13 @@ def convert(s: pd.Series, f: FieldProfile) -> pd.Series:
 def working_frame(df: pd.DataFrame, profile: Profile, columns: list[str]) -> pd.DataFrame:
     """The used columns under their string labels, converted. Rows with any missing value are
     kept (callers drop as they need)."""
+    def converted(f: FieldProfile) -> pd.Series:
+        return convert(df[f.name], f).reset_index(drop=True)
+
     data = {}
     for label in columns:
         f = profile.fields[label]
-        data[label] = memo_get(("converted", label),
-                               lambda f=f: convert(df[f.name], f).reset_index(drop=True),
-                               about=df)
+        data[label] = memo_get(("converted", label), partial(converted, f), about=df)
     return pd.DataFrame(data, copy=False)
 
 

@@ -17,7 +17,7 @@ from plotwise.drawing.codegen import short
 from plotwise.engine.memo import FrameMemo, using
 from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
-from plotwise.notebook.display import advice_html, figure_png, hazards_html, surprises_html
+from plotwise.notebook.display import advice_html, alt_text, figure_png, hazards_html, surprises_html
 from plotwise.pipeline import advise
 
 
@@ -58,6 +58,7 @@ class AdvicePanel(widgets.VBox):
         # Advice and top figure per question already asked: going back to one is instant. The
         # frame is the same object for the panel's whole life, so the answers stay valid.
         self._cache: dict[tuple, tuple[Advice, bytes]] = {}
+        self._details: dict[tuple, bytes] = {}  # detail images by question, design and bins
         # The frame's profile, converted columns and whole-frame findings, kept between
         # questions (valid while the frame keeps its identity, shape, columns and dtypes).
         self._memo = FrameMemo(self._frame)
@@ -128,6 +129,8 @@ class AdvicePanel(widgets.VBox):
         if self._on_advice is not None:
             self._on_advice(a, self._top_png)
         self.top_image.value = self._top_png
+        # The image's accessible name (its title attribute: widgets' images take no alt text).
+        self.top_image.tooltip = alt_text(a)
         self.hazards.value = hazards_html(a.hazards) + (
             "<b>Worth a second look</b>" + surprises_html(a.surprises) if a.surprises else "")
         self._busy = True
@@ -150,8 +153,11 @@ class AdvicePanel(widgets.VBox):
             self.bins.layout.display = "none"
         self.selected = d
         try:
-            ax = self.advice.draw(d)
-            self.detail_image.value = figure_png(ax.figure)
+            key = self._key(self.advice) + (index, d.options.bins)
+            if key not in self._details:
+                self._details[key] = figure_png(self.advice.draw(d).figure)
+            self.detail_image.value = self._details[key]
+            self.detail_image.tooltip = f"design {index + 1} of the ranked list: {d.summary()}"
             self.message.value = ""
         except PlotwiseError as exc:
             self.message.value = f"<span style='color:var(--jp-error-color1,#B00020)'>{_escape(exc)}</span>"

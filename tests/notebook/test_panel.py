@@ -16,6 +16,10 @@ def panel():
 
 def test_initial_state(panel):
     assert bytes(panel.top_image.value).startswith(b"\x89PNG")
+    # accessible names: what each image shows, by kind and columns
+    assert panel.top_image.tooltip.startswith("plotwise's top designs side by side: 1. ")
+    assert "'invest'" in panel.top_image.tooltip and "'firm'" in panel.top_image.tooltip
+    assert panel.detail_image.tooltip.startswith("design 1 of the ranked list: ")
     assert len(panel.designs.options) == len(panel.advice.designs)
     assert "grunfeld['invest']" in panel.code.value
     assert panel.bins.layout.display == "none"
