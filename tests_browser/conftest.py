@@ -41,6 +41,29 @@ def digest(page, sel):
     return page.evaluate(DIGEST_JS, sel)
 
 
+NB = ".jp-NotebookPanel:not(.lm-mod-hidden)"  # the notebook in front
+
+
+def notebook_of(*sources: str) -> nbformat.NotebookNode:
+    return new_notebook(cells=[new_code_cell(src) for src in sources],
+                        metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
+                                                 "language": "python"}})
+
+
+def run_all(page, lab, name: str, before=None) -> None:
+    """Open notebook ``name`` alone (a reset workspace), wait for its kernel, call ``before(page)``
+    if given, then run all cells from the Run menu (keystrokes sent while the page settles can
+    be lost)."""
+    page.goto(f"{lab.url}/lab/tree/{name}?reset&token={lab.token}")
+    page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
+    lab.wait_session(name)
+    time.sleep(1)  # let the page settle (Lab keeps polling, so no "network idle" state)
+    if before is not None:
+        before(page)
+    page.locator(".lm-MenuBar-itemLabel", has_text="Run").first.click()
+    page.locator(".lm-Menu-itemLabel", has_text="Run All Cells").first.click()
+
+
 def free_port() -> int:
     with socket.socket() as s:
         s.bind(("127.0.0.1", 0))
@@ -48,10 +71,7 @@ def free_port() -> int:
 
 
 def panel_notebook() -> nbformat.NotebookNode:
-    return new_notebook(cells=[new_code_cell(SETUP),
-                               new_code_cell("%plotwise compare sailings --x pier --y fare_revenue")],
-                        metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
-                                                 "language": "python"}})
+    return notebook_of(SETUP, "%plotwise compare sailings --x pier --y fare_revenue")
 
 
 def write_settings(folder: Path) -> None:

@@ -95,11 +95,11 @@ def test_01_panel_renders(page, shots):
     page.screenshot(path=str(shots / "01-panel.png"))
     assert page.locator(".pw-panel").count() == 1
     assert digest(page, ".pw-panel img.pw-top")
-    # Each image has an accessible name saying what it shows (its title attribute).
-    top_name = page.locator(".pw-panel img.pw-top").get_attribute("title") or ""
+    # Each image has alt text saying what it shows.
+    top_name = page.locator(".pw-panel img.pw-top").get_attribute("alt") or ""
     assert top_name.startswith("plotwise's top designs side by side: 1.") and "fare_revenue" in top_name
     assert "design 1 of the ranked list" in (
-        page.locator(".pw-panel img.pw-detail").get_attribute("title") or "")
+        page.locator(".pw-panel img.pw-detail").get_attribute("alt") or "")
     assert options_of(page)[0].startswith("1. bar")
     assert "skewed" in page.locator(".pw-hazards").inner_text()
     assert page.locator(".jp-OutputArea-output[data-mime-type='application/vnd.jupyter.stderr']").count() == 0

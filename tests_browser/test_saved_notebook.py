@@ -7,12 +7,10 @@ import urllib.request
 
 import nbformat
 import pytest
-from conftest import SETUP, digest
-from nbformat.v4 import new_code_cell, new_notebook
+from conftest import NB, SETUP, digest, notebook_of, run_all
 
 pytestmark = pytest.mark.filterwarnings("ignore::DeprecationWarning")
 
-NB = ".jp-NotebookPanel:not(.lm-mod-hidden)"  # the notebook in front
 STATIC_IMG = f"{NB} .pw-static img"
 
 
@@ -21,16 +19,8 @@ def static_digest(page):
 
 
 def open_and_run(page, lab, name, theme=None) -> None:
-    """Open the notebook alone (a reset workspace), wait for its kernel, run all cells from the
-    Run menu (keystrokes sent while the page settles can be lost), wait for the panel."""
-    page.goto(f"{lab.url}/lab/tree/{name}?reset&token={lab.token}")
-    page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
-    lab.wait_session(name)
-    time.sleep(1)  # let the page settle (Lab keeps polling, so no "network idle" state)
-    if theme:
-        set_theme(page, theme)
-    page.locator(".lm-MenuBar-itemLabel", has_text="Run").first.click()
-    page.locator(".lm-Menu-itemLabel", has_text="Run All Cells").first.click()
+    """Run all cells of ``name`` (in ``theme``) and wait for the panel."""
+    run_all(page, lab, name, before=(lambda pg: set_theme(pg, theme)) if theme else None)
     page.wait_for_selector(f"{NB} .pw-panel img.pw-top", timeout=180_000)
     lab.wait_idle()
 
@@ -43,10 +33,7 @@ def shut_down_kernels(lab) -> None:
 
 
 def test_reopened_notebook_shows_the_changed_advice(lab, browser, shots):
-    nb = new_notebook(cells=[new_code_cell(SETUP),
-                             new_code_cell("%plotwise compare sailings --x pier --y fare_revenue")],
-                      metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
-                                               "language": "python"}})
+    nb = notebook_of(SETUP, "%plotwise compare sailings --x pier --y fare_revenue")
     nbformat.write(nb, lab.root / "saved.ipynb")
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
@@ -131,10 +118,7 @@ def set_theme(page, name):
 
 @pytest.mark.parametrize("theme", ["JupyterLab Light", "JupyterLab Dark"])
 def test_text_contrast_in_light_and_dark(lab, browser, shots, theme):
-    nb = new_notebook(cells=[new_code_cell(SETUP),
-                             new_code_cell("%plotwise compare sailings --x pier --y passengers")],
-                      metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
-                                               "language": "python"}})
+    nb = notebook_of(SETUP, "%plotwise compare sailings --x pier --y passengers")
     name = f"contrast-{theme.split()[-1].lower()}.ipynb"
     nbformat.write(nb, lab.root / name)
     page = browser.new_page(viewport={"width": 1280, "height": 900})
@@ -162,20 +146,11 @@ def test_text_contrast_in_light_and_dark(lab, browser, shots, theme):
 
 
 def test_run_all_stops_at_a_bad_magic(lab, browser, shots):
-    nb = new_notebook(cells=[new_code_cell(SETUP),
-                             new_code_cell("%plotwise explain sailings"),
-                             new_code_cell("after = 'this cell ran'\nafter")],
-                      metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
-                                               "language": "python"}})
+    nb = notebook_of(SETUP, "%plotwise explain sailings", "after = 'this cell ran'\nafter")
     nbformat.write(nb, lab.root / "runall.ipynb")
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
-        page.goto(f"{lab.url}/lab/tree/runall.ipynb?reset&token={lab.token}")
-        page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
-        lab.wait_session("runall.ipynb")
-        time.sleep(1)
-        page.locator(".lm-MenuBar-itemLabel", has_text="Run").first.click()
-        page.locator(".lm-Menu-itemLabel", has_text="Run All Cells").first.click()
+        run_all(page, lab, "runall.ipynb")
         page.wait_for_function(
             "document.querySelector('.jp-NotebookPanel:not(.lm-mod-hidden)').innerText"
             ".includes('UsageError')", timeout=120_000)

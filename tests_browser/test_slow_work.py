@@ -2,16 +2,12 @@
 status line (what is computed, how many rows, which engine) and the controls are disabled; when
 the new advice is in, the status line goes and the controls come back."""
 
-import time
-
 import nbformat
 import pytest
-from conftest import digest
-from nbformat.v4 import new_code_cell, new_notebook
+from conftest import NB, digest, notebook_of, run_all
 
 pytestmark = pytest.mark.filterwarnings("ignore::DeprecationWarning")
 
-NB = ".jp-NotebookPanel:not(.lm-mod-hidden)"
 ROWS = 20_000_000
 
 
@@ -27,19 +23,12 @@ def write_parquet(path) -> None:
 
 def test_status_line_while_a_slow_advice_runs(lab, browser, shots):
     write_parquet(lab.root / "big.parquet")
-    nb = new_notebook(cells=[new_code_cell("%load_ext plotwise"),
-                             new_code_cell("%plotwise compare big.parquet --x region --y amount")],
-                      metadata={"kernelspec": {"name": "python3", "display_name": "Python 3",
-                                               "language": "python"}})
-    nbformat.write(nb, lab.root / "slow.ipynb")
+    nbformat.write(notebook_of("%load_ext plotwise",
+                               "%plotwise compare big.parquet --x region --y amount"),
+                   lab.root / "slow.ipynb")
     page = browser.new_page(viewport={"width": 1280, "height": 900})
     try:
-        page.goto(f"{lab.url}/lab/tree/slow.ipynb?reset&token={lab.token}")
-        page.wait_for_selector(f"{NB} .jp-Notebook", timeout=120_000)
-        lab.wait_session("slow.ipynb")
-        time.sleep(1)
-        page.locator(".lm-MenuBar-itemLabel", has_text="Run").first.click()
-        page.locator(".lm-Menu-itemLabel", has_text="Run All Cells").first.click()
+        run_all(page, lab, "slow.ipynb")
         page.wait_for_selector(f"{NB} .pw-panel img.pw-top", timeout=300_000)
         lab.wait_idle(timeout=300)
         before = digest(page, f"{NB} .pw-panel img.pw-top")

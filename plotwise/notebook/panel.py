@@ -38,6 +38,13 @@ def _known(value, options) -> str:
     return label if any(v == label for _, v in options) else AUTO
 
 
+def image_html(png: bytes, alt: str, cls: str, max_width: str) -> str:
+    """A PNG as an <img> element with alt text (the panel's images)."""
+    b64 = base64.b64encode(png).decode("ascii")
+    return (f"<img class='{cls}' alt='{_escape(alt)}' style='max-width:{max_width};width:100%' "
+            f"src='data:image/png;base64,{b64}'/>")
+
+
 def _chosen(control):
     """A control's value as advise() takes it (None for "(auto)" and "any task")."""
     return None if control.value == AUTO else control.value
@@ -79,13 +86,15 @@ class AdvicePanel(widgets.VBox):
                                     description="hue",
                                     layout=widgets.Layout(width=w))
         self.message = widgets.HTML()
-        self.top_image = widgets.Image(format="png", layout=widgets.Layout(width="100%", max_width="1400px"))
+        # Images as HTML <img> elements: each carries alt text naming what it shows (widgets'
+        # Image takes none, and a tooltip on it stops JupyterLab drawing the widget at all).
+        self.top_image = widgets.HTML(layout=widgets.Layout(width="100%", max_width="1400px"))
         self.hazards = widgets.HTML()
         # Every control carries a label of its own (a <label> for assistive technology too).
         self.designs = widgets.Select(options=[], rows=12, description="design",
                                       style={"description_width": "initial"},
                                       layout=widgets.Layout(width="360px"))
-        self.detail_image = widgets.Image(format="png", layout=widgets.Layout(max_width="620px"))
+        self.detail_image = widgets.HTML(layout=widgets.Layout(max_width="620px"))
         self.bins = widgets.IntSlider(value=20, min=3, max=120, description="bins",
                                       continuous_update=False,
                                       layout=widgets.Layout(width="360px", display="none"))
@@ -96,9 +105,9 @@ class AdvicePanel(widgets.VBox):
             control.observe(self._on_question, names="value")
         # Stable class names for styling and for browser tests.
         for widget, name in ((self.task, "task"), (self.x, "x"), (self.y, "y"), (self.hue, "hue"),
-                             (self.message, "message"), (self.top_image, "top"),
+                             (self.message, "message"), (self.top_image, "top-box"),
                              (self.hazards, "hazards"), (self.designs, "designs"),
-                             (self.detail_image, "detail"), (self.bins, "bins"),
+                             (self.detail_image, "detail-box"), (self.bins, "bins"),
                              (self.reasons, "reasons"), (self.code, "code")):
             widget.add_class(f"pw-{name}")
         self.designs.observe(self._on_design, names="value")
@@ -128,9 +137,7 @@ class AdvicePanel(widgets.VBox):
         self._cache[self._key(a)] = (a, self._top_png)
         if self._on_advice is not None:
             self._on_advice(a, self._top_png)
-        self.top_image.value = self._top_png
-        # The image's accessible name (its title attribute: widgets' images take no alt text).
-        self.top_image.tooltip = alt_text(a)
+        self.top_image.value = image_html(self._top_png, alt_text(a), "pw-top", "100%")
         self.hazards.value = hazards_html(a.hazards) + (
             "<b>Worth a second look</b>" + surprises_html(a.surprises) if a.surprises else "")
         self._busy = True
@@ -156,8 +163,9 @@ class AdvicePanel(widgets.VBox):
             key = self._key(self.advice) + (index, d.options.bins)
             if key not in self._details:
                 self._details[key] = figure_png(self.advice.draw(d).figure)
-            self.detail_image.value = self._details[key]
-            self.detail_image.tooltip = f"design {index + 1} of the ranked list: {d.summary()}"
+            self.detail_image.value = image_html(
+                self._details[key], f"design {index + 1} of the ranked list: {d.summary()}",
+                "pw-detail", "620px")
             self.message.value = ""
         except PlotwiseError as exc:
             self.message.value = f"<span style='color:var(--jp-error-color1,#B00020)'>{_escape(exc)}</span>"

@@ -1,6 +1,10 @@
 """The widget panel, driven in the kernel: each control changes what it should and no figure
 is left open."""
 
+import base64
+import html
+import re
+
 import matplotlib.pyplot as plt
 import pytest
 from open_data import grunfeld, iris
@@ -15,11 +19,14 @@ def panel():
 
 
 def test_initial_state(panel):
-    assert bytes(panel.top_image.value).startswith(b"\x89PNG")
-    # accessible names: what each image shows, by kind and columns
-    assert panel.top_image.tooltip.startswith("plotwise's top designs side by side: 1. ")
-    assert "'invest'" in panel.top_image.tooltip and "'firm'" in panel.top_image.tooltip
-    assert panel.detail_image.tooltip.startswith("design 1 of the ranked list: ")
+    assert panel._top_png.startswith(b"\x89PNG")
+    assert "src='data:image/png;base64," + base64.b64encode(panel._top_png).decode() in (
+        panel.top_image.value)
+    # alt text: what each image shows, by kind and columns
+    top = re.search(r"<img class='pw-top' alt='([^']*)'", panel.top_image.value)
+    assert top and html.unescape(top.group(1)).startswith("plotwise's top designs side by side: 1.")
+    assert "&#x27;invest&#x27;" in top.group(1) and "&#x27;firm&#x27;" in top.group(1)
+    assert "<img class='pw-detail' alt='design 1 of the ranked list: " in panel.detail_image.value
     assert len(panel.designs.options) == len(panel.advice.designs)
     assert "grunfeld['invest']" in panel.code.value
     assert panel.bins.layout.display == "none"
