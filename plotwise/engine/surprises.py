@@ -205,17 +205,27 @@ def modified_z(values: np.ndarray) -> np.ndarray | None:
     return T["modified_z_constant"] * (values - med) / mad
 
 
-def grouped_modified_z(values: pd.Series, groups: pd.Series) -> np.ndarray:
-    """``modified_z`` of every value within its own group, in one grouped pass (NaN where a
-    group's MAD is 0)."""
-    codes = pd.factorize(groups)[0]
-    v = values.to_numpy(dtype=float)
-    med = pd.Series(v).groupby(codes).median().to_numpy()[codes]
-    mad = pd.Series(np.abs(v - med)).groupby(codes).median().to_numpy()[codes]
+def grouped_modified_z(values: np.ndarray, codes: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """(``modified_z`` of every value within its own group, each group's median) — NaN where a
+    group's MAD is 0. ``codes``: each value's group number (0, 1, …). Past
+    T['outlier_centre_sample'] values, medians and MADs come from a seeded sample that keeps
+    every row of small groups; every value is scored against them."""
+    v = np.asarray(values, dtype=float)
+    groups = int(codes.max()) + 1 if len(codes) else 0
+    take = T["outlier_centre_sample"]
+    if len(v) > take:
+        sizes = np.bincount(codes, minlength=groups)
+        keep = np.random.default_rng(0).random(len(v)) < take / len(v)
+        keep |= sizes[codes] <= T["outlier_small_group"]
+        sv, sc = v[keep], codes[keep]
+    else:
+        sv, sc = v, codes
+    med = pd.Series(sv).groupby(sc).median().reindex(range(groups)).to_numpy()
+    mad = pd.Series(np.abs(sv - med[sc])).groupby(sc).median().reindex(range(groups)).to_numpy()
     with np.errstate(divide="ignore", invalid="ignore"):
-        z = T["modified_z_constant"] * (v - med) / mad
-    z[~np.isfinite(mad) | (mad == 0)] = np.nan
-    return z
+        z = T["modified_z_constant"] * (v - med[codes]) / mad[codes]
+    z[~np.isfinite(mad[codes]) | (mad[codes] == 0)] = np.nan
+    return z, med
 
 
 @surprise("group-outlier", "a value far outside its own group (modified z-score above 3.5, "
@@ -243,18 +253,16 @@ def _far_in_group(ctx: SurpriseContext, value: str, group: str) -> list[Surprise
     from statistics import NormalDist
 
     bar = max(T["modified_z"], -NormalDist().inv_cdf(0.025 / max(len(d), 1)))
-    v = d[value].astype(float)
-    z = grouped_modified_z(np.log10(v) if skewed else v, d[group])
-    z[d.groupby(group, observed=True, sort=False)[value].transform("size").to_numpy()
-      < T["outlier_min_group"]] = np.nan
+    v = d[value].to_numpy(dtype=float)
+    codes, labels = pd.factorize(d[group])
+    z, centre = grouped_modified_z(np.log10(v) if skewed else v, codes)
+    z[np.bincount(codes)[codes] < T["outlier_min_group"]] = np.nan
     with np.errstate(invalid="ignore"):
         far = np.flatnonzero(np.abs(z) > bar)
-    if len(far):
-        medians = v.groupby(d[group], observed=True, sort=False).median()
-        for i in far:
-            g = d[group].iat[i]
-            found.append((abs(float(z[i])), int(d.index[i]), g, float(v.iat[i]),
-                          float(medians[g])))
+    for i in far:
+        med = 10 ** centre[codes[i]] if skewed else centre[codes[i]]  # (the log's median)
+        found.append((abs(float(z[i])), int(d.index[i]), labels[codes[i]], float(v[i]),
+                      float(med)))
     if not found or len(found) > max(2, T["outlier_max_share"] * len(d)):
         return []
     found.sort(key=lambda t: -t[0])
