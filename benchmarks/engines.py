@@ -25,7 +25,7 @@ from pathlib import Path
 HERE = Path(__file__).resolve().parent
 OUT = HERE.parent / "build" / "bench"
 sys.path.insert(0, str(HERE))
-from run import TASKS  # noqa: E402  the same tasks and columns as the pandas benchmark
+from frames import TASKS  # noqa: E402  the same tasks and columns as the pandas benchmark
 
 RUN = r"""
 import io, json, sys, time

@@ -24,7 +24,7 @@ CODE = r"""
 import io, json, sys, time
 import numpy as np, pandas as pd
 sys.path.insert(0, {here!r})
-from run import TASKS, frame
+from frames import TASKS, frame
 df = frame(100_000)
 t0 = time.perf_counter()
 import plotwise
@@ -49,7 +49,7 @@ def one(task: str) -> dict:
 
 def main() -> int:
     sys.path.insert(0, str(__import__("pathlib").Path(__file__).resolve().parent))
-    from run import TASKS
+    from frames import TASKS
 
     print(f"first call in a fresh interpreter, 100,000 rows (median of {RUNS} runs; "
           f"target advise + show ≤ {TARGET_S} s)")

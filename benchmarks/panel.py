@@ -27,7 +27,7 @@ matplotlib.use("Agg")
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from run import TASKS, frame  # noqa: E402
+from frames import TASKS, frame  # noqa: E402
 
 import plotwise  # noqa: E402
 from plotwise.notebook.panel import AdvicePanel  # noqa: E402

@@ -25,36 +25,14 @@ import matplotlib
 matplotlib.use("Agg")
 
 import matplotlib.pyplot as plt  # noqa: E402
-import numpy as np  # noqa: E402
 import pandas as pd  # noqa: E402
 import seaborn as sns  # noqa: E402
+from frames import REGIONS, TASKS, frame  # noqa: E402, F401  (the benchmark frame)
 
 import plotwise  # noqa: E402
 
 OUT = Path(__file__).resolve().parent.parent / "build" / "bench"
 LIMIT_S = 60.0
-REGIONS = np.array([f"region {c}" for c in "ABCDEFGHIJKL"])
-TASKS = {
-    "compare": dict(x="region", y="amount"),
-    "trend": dict(x="day", y="amount"),
-    "proportion": dict(x="region", y="amount"),
-    "correlate": dict(x="amount", y="score"),
-    "distribution": dict(x="duration"),
-}
-
-
-def frame(n: int, seed: int = 0) -> pd.DataFrame:
-    rng = np.random.default_rng(seed)
-    amount = rng.lognormal(3, 0.8, n)
-    return pd.DataFrame({
-        "region": REGIONS[rng.integers(0, len(REGIONS), n)],
-        "day": pd.Timestamp("2024-01-01") + pd.to_timedelta(rng.integers(0, 730, n), unit="D"),
-        "amount": amount,
-        "duration": np.where(rng.random(n) < 0.4, rng.normal(14, 2, n), rng.normal(31, 4, n)),
-        "score": 2 * np.log(amount) + rng.normal(0, 1, n),
-    })
-
-
 def render(fig) -> None:
     buf = io.BytesIO()
     fig.savefig(buf, format="png", dpi=100)

@@ -20,7 +20,8 @@ matplotlib.use("Agg")
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from run import TASKS, frame, render  # noqa: E402
+from frames import TASKS, frame  # noqa: E402
+from run import render  # noqa: E402
 
 import plotwise  # noqa: E402
 
