@@ -255,14 +255,16 @@ def _far_in_group(ctx: SurpriseContext, value: str, group: str) -> list[Surprise
     bar = max(T["modified_z"], -NormalDist().inv_cdf(0.025 / max(len(d), 1)))
     v = d[value].to_numpy(dtype=float)
     codes, labels = pd.factorize(d[group])
-    z, centre = grouped_modified_z(np.log10(v) if skewed else v, codes)
+    z, _ = grouped_modified_z(np.log10(v) if skewed else v, codes)
     z[np.bincount(codes)[codes] < T["outlier_min_group"]] = np.nan
     with np.errstate(invalid="ignore"):
         far = np.flatnonzero(np.abs(z) > bar)
+    told: dict[int, float] = {}  # each named group's median over all its rows, as the message says
     for i in far:
-        med = 10 ** centre[codes[i]] if skewed else centre[codes[i]]  # (the log's median)
-        found.append((abs(float(z[i])), int(d.index[i]), labels[codes[i]], float(v[i]),
-                      float(med)))
+        c = int(codes[i])
+        if c not in told:
+            told[c] = float(np.median(v[codes == c]))
+        found.append((abs(float(z[i])), int(d.index[i]), labels[c], float(v[i]), told[c]))
     if not found or len(found) > max(2, T["outlier_max_share"] * len(d)):
         return []
     found.sort(key=lambda t: -t[0])
