@@ -110,6 +110,13 @@ def open_source(data) -> Source | None:
     if module in ("polars", "pyarrow", "duckdb", "pyspark"):
         import narwhals as nw
 
+        # PyArrow tables and Spark frames may repeat a name (Polars and DuckDB cannot);
+        # narwhals would refuse them with an error of its own.
+        names = list(data.column_names if module == "pyarrow" else
+                     data.columns if module == "pyspark" else [])
+        dupes = sorted({str(c) for c in names if names.count(c) > 1})
+        if dupes:
+            raise PlotwiseError(f"the data has duplicate column names {dupes[:5]}; rename them.")
         try:
             frame = nw.from_native(data)
         except TypeError:
@@ -175,7 +182,6 @@ def _checked(src: Source) -> Source:
                 f"column name(s) {odd[:5]} read as a wildcard or a regular expression in "
                 f"{src.engine_name}'s column selection (every column, or every matching one); "
                 "rename them first, e.g. 'all' or 'v_pattern'.")
-    return src
     dupes = sorted({c for c in src.columns if src.columns.count(c) > 1})
     if dupes:
         raise PlotwiseError(f"the {src.kind} has duplicate column names {dupes[:5]}; rename them.")

@@ -453,3 +453,14 @@ def duckdb_relation(df):
     import duckdb
 
     return duckdb.from_df(df)
+
+
+def test_duplicate_column_names_in_an_arrow_table_are_refused():
+    # A PyArrow Table may hold two columns of one name; narwhals then raised its own
+    # DuplicateError (a traceback) where plotwise's check should have spoken.
+    import pyarrow as pa
+
+    t = pa.Table.from_arrays([pa.array(["x", "y", "z"] * 20), pa.array(range(60))],
+                             names=["a", "a"])
+    with pytest.raises(plotwise.PlotwiseError, match=r"duplicate column names \['a'\]"):
+        plotwise.advise(t, "compare")
