@@ -256,7 +256,8 @@ SURPRISE_THRESHOLDS: dict[str, Any] = {
     "outlier_min_group": 5,
     "outlier_max_share": 0.05,  # more than this share far out: heavy tails, not a surprise
     # Above this many values a group's median and MAD come from a seeded sample of about this
-    # many (every row of a group with at most "outlier_small_group" rows is kept): a median of
+    # many, drawn with replacement (every row of a group with at most "outlier_small_group"
+    # rows is kept instead): a median of
     # 16,000 values is within about 0.01 SD of the group's, far below the 3.5 bar (common
     # practice); every row is still scored against them.
     "outlier_centre_sample": 200_000,

@@ -205,27 +205,42 @@ def modified_z(values: np.ndarray) -> np.ndarray | None:
     return T["modified_z_constant"] * (values - med) / mad
 
 
-def grouped_modified_z(values: np.ndarray, codes: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """(``modified_z`` of every value within its own group, each group's median) — NaN where a
-    group's MAD is 0. ``codes``: each value's group number (0, 1, …). Past
-    T['outlier_centre_sample'] values, medians and MADs come from a seeded sample that keeps
-    every row of small groups; every value is scored against them."""
-    v = np.asarray(values, dtype=float)
+def group_centres(values: np.ndarray, codes: np.ndarray, smallest: int = 1
+                  ) -> tuple[np.ndarray, np.ndarray]:
+    """(median, MAD) of each group of ``values``; ``codes`` numbers the groups 0, 1, … A group
+    of fewer than ``smallest`` values gets NaN. Past T['outlier_centre_sample'] values they come
+    from a seeded sample (drawn with replacement) plus every row of the groups of at most
+    T['outlier_small_group'] rows."""
     groups = int(codes.max()) + 1 if len(codes) else 0
+    sizes = np.bincount(codes, minlength=groups)
     take = T["outlier_centre_sample"]
-    if len(v) > take:
-        sizes = np.bincount(codes, minlength=groups)
-        keep = np.random.default_rng(0).random(len(v)) < take / len(v)
-        keep |= sizes[codes] <= T["outlier_small_group"]
-        sv, sc = v[keep], codes[keep]
+    if len(values) > take:
+        small = sizes <= T["outlier_small_group"]
+        drawn = np.random.default_rng(0).integers(0, len(values), take)
+        rows = np.concatenate([drawn[~small[codes[drawn]]], np.flatnonzero(small[codes])])
+        sv, sc = values[rows], codes[rows]
     else:
-        sv, sc = v, codes
+        sv, sc = values, codes
     med = pd.Series(sv).groupby(sc).median().reindex(range(groups)).to_numpy()
-    mad = pd.Series(np.abs(sv - med[sc])).groupby(sc).median().reindex(range(groups)).to_numpy()
-    with np.errstate(divide="ignore", invalid="ignore"):
-        z = T["modified_z_constant"] * (v - med[codes]) / mad[codes]
-    z[~np.isfinite(mad[codes]) | (mad[codes] == 0)] = np.nan
-    return z, med
+    mad = pd.Series(np.abs(sv - med[sc])).groupby(sc).median().reindex(range(groups)).to_numpy(
+        copy=True)
+    mad[(sizes < smallest) | ~np.isfinite(mad) | (mad == 0)] = np.nan
+    return med, mad
+
+
+def far_from_centre(values: np.ndarray, codes: np.ndarray, med: np.ndarray, mad: np.ndarray,
+                    bar: float, block: int = 100_000) -> tuple[np.ndarray, np.ndarray]:
+    """(positions, modified z) of the values whose modified z-score within their own group
+    passes ``bar`` — computed in blocks of rows, so the memory beyond the inputs stays small."""
+    where, zs = [], []
+    for start in range(0, len(values), block):
+        c = codes[start:start + block]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            z = T["modified_z_constant"] * (values[start:start + block] - med[c]) / mad[c]
+            far = np.flatnonzero(np.abs(z) > bar)
+        where.append(far + start)
+        zs.append(z[far])
+    return np.concatenate(where or [np.arange(0)]), np.concatenate(zs or [np.zeros(0)])
 
 
 @surprise("group-outlier", "a value far outside its own group (modified z-score above 3.5, "
@@ -255,16 +270,15 @@ def _far_in_group(ctx: SurpriseContext, value: str, group: str) -> list[Surprise
     bar = max(T["modified_z"], -NormalDist().inv_cdf(0.025 / max(len(d), 1)))
     v = d[value].to_numpy(dtype=float)
     codes, labels = pd.factorize(d[group])
-    z, _ = grouped_modified_z(np.log10(v) if skewed else v, codes)
-    z[np.bincount(codes)[codes] < T["outlier_min_group"]] = np.nan
-    with np.errstate(invalid="ignore"):
-        far = np.flatnonzero(np.abs(z) > bar)
+    scored = np.log10(v) if skewed else v
+    med, mad = group_centres(scored, codes, smallest=T["outlier_min_group"])
+    far, z = far_from_centre(scored, codes, med, mad, bar)
     told: dict[int, float] = {}  # each named group's median over all its rows, as the message says
-    for i in far:
+    for i, zi in zip(far, z):
         c = int(codes[i])
         if c not in told:
             told[c] = float(np.median(v[codes == c]))
-        found.append((abs(float(z[i])), int(d.index[i]), labels[c], float(v[i]), told[c]))
+        found.append((abs(float(zi)), int(d.index[i]), labels[c], float(v[i]), told[c]))
     if not found or len(found) > max(2, T["outlier_max_share"] * len(d)):
         return []
     found.sort(key=lambda t: -t[0])
@@ -502,13 +516,31 @@ def _repeated_rows(ctx: SurpriseContext) -> list[Surprise]:
         "were loaded twice.", rows=rows[:NAMED])]
 
 
+def row_hashes(frame: pd.DataFrame, block: int = 100_000) -> np.ndarray:
+    """One 64-bit hash per row from pandas' hash of each value (hash_pandas_object), combined
+    column by column in blocks of rows, so that the memory beyond the result stays small."""
+    out = np.zeros(len(frame), dtype=np.uint64)
+    for start in range(0, len(frame), block):
+        part = frame.iloc[start:start + block]
+        acc = out[start:start + block]
+        for col in range(part.shape[1]):
+            h = pd.util.hash_pandas_object(part.iloc[:, col], index=False).to_numpy()
+            acc *= np.uint64(1_000_003)
+            acc ^= h
+    return out
+
+
 def _exact_repeats(frame: pd.DataFrame) -> tuple[np.ndarray, int] | None:
     """(positions of the rows that repeat an earlier row in every column, position of the row
     the first of them repeats), or None. Rows are hashed first (pandas' row hash, one pass);
     only rows whose hash occurs twice are compared exactly, so a hash collision never counts."""
     try:
-        hashes = pd.util.hash_pandas_object(frame, index=False).to_numpy()
-        maybe = np.flatnonzero(pd.Series(hashes).duplicated(keep=False).to_numpy())
+        hashes = row_hashes(frame)
+        # hashes that occur twice, found on a sorted copy (a hash table would cost more memory)
+        ordered = np.sort(hashes)
+        twice = np.unique(ordered[1:][ordered[1:] == ordered[:-1]])
+        del ordered
+        maybe = np.flatnonzero(np.isin(hashes, twice)) if len(twice) else np.arange(0)
     except (TypeError, ValueError):  # values pandas cannot hash (lists beside numbers...)
         maybe = np.arange(len(frame))
     if len(maybe) == 0:

@@ -110,13 +110,13 @@ def test_group_outlier_names_row_and_group_and_twin_is_silent(rng):
                                                         y="basket"))
 
 
-def test_grouped_modified_z_from_a_sample_flags_what_the_exact_medians_flag(rng):
+def test_group_centres_from_a_sample_flag_what_the_exact_medians_flag(rng):
     # Past 200,000 values each group's median and MAD come from a sample (small groups whole);
     # the rows it flags must be those that the exact per-group modified z (scipy's MAD, the
     # reference above) puts beyond the bar.
     from statistics import NormalDist
 
-    from plotwise.engine.surprises import grouped_modified_z
+    from plotwise.engine.surprises import far_from_centre, group_centres
 
     n = 400_000
     codes = rng.integers(0, 3, n)
@@ -124,16 +124,17 @@ def test_grouped_modified_z_from_a_sample_flags_what_the_exact_medians_flag(rng)
     v = rng.normal(100, 10, n) + 20 * codes
     planted = [7, 90, 12_345, 399_999]
     v[planted] = [300.0, -100.0, 260.0, 400.0]
-    z, centre = grouped_modified_z(v, codes)
+    centre, mad = group_centres(v, codes)
     bar = -NormalDist().inv_cdf(0.025 / n)
     exact = np.empty(n)
     for g in range(4):
         m = codes == g
         exact[m] = modified_z_reference(v[m])
         assert centre[g] == pytest.approx(np.median(v[m]), abs=0.2)  # within 0.02 SD
-    np.testing.assert_array_equal(np.flatnonzero(np.abs(z) > bar),
-                                  np.flatnonzero(np.abs(exact) > bar))
-    assert set(planted) <= set(np.flatnonzero(np.abs(z) > bar))
+    far, z = far_from_centre(v, codes, centre, mad, bar, block=30_000)
+    np.testing.assert_array_equal(far, np.flatnonzero(np.abs(exact) > bar))
+    np.testing.assert_allclose(z, exact[far], rtol=0.02)
+    assert set(planted) <= set(far)
 
 
 # level-shift -----------------------------------------------------------------------------------
