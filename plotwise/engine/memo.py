@@ -41,7 +41,7 @@ class FrameMemo:
         self._print = fingerprint(frame)
         self._store: dict[tuple, Any] = {}
         self._lock = threading.Lock()
-        self.hits = 0  # answers given from the memo (the benchmark reports them)
+        self.hits = 0  # answers given from the memo (tests count them)
 
     def valid_for(self, frame: object) -> bool:
         return frame is self.frame and fingerprint(frame) == self._print

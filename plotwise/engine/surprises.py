@@ -196,18 +196,10 @@ def _label_misfit(ctx: SurpriseContext) -> list[Surprise]:
         rows=rows, columns=(ctx.x, ctx.y, ctx.hue), marks=marks)]
 
 
-def modified_z(values: np.ndarray) -> np.ndarray | None:
-    """Iglewicz & Hoaglin's modified z-score 0.6745·(x − median)/MAD; None when MAD is 0."""
-    med = np.median(values)
-    mad = np.median(np.abs(values - med))
-    if not np.isfinite(mad) or mad == 0:
-        return None
-    return T["modified_z_constant"] * (values - med) / mad
-
-
 def group_centres(values: np.ndarray, codes: np.ndarray, smallest: int = 1
                   ) -> tuple[np.ndarray, np.ndarray]:
-    """(median, MAD) of each group of ``values``; ``codes`` numbers the groups 0, 1, … A group
+    """(median, MAD) of each group of ``values``, for Iglewicz & Hoaglin's modified z-score
+    0.6745·(x − median)/MAD (far_from_centre); ``codes`` numbers the groups 0, 1, … A group
     of fewer than ``smallest`` values gets NaN. Past T['outlier_centre_sample'] values they come
     from a seeded sample (drawn with replacement) plus every row of the groups of at most
     T['outlier_small_group'] rows."""
