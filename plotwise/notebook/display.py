@@ -38,6 +38,15 @@ def alt_text(advice: Advice) -> str:
     return f"plotwise's top designs side by side: {shown}"
 
 
+def img_tag(png: bytes, alt: str, attrs: str = "", style: str = "") -> str:
+    """A PNG inline as an <img> element with alt text (every plotwise image in HTML);
+    ``attrs``: attributes before the alt text (class, width), ``style``: an inline style."""
+    b64 = base64.b64encode(png).decode("ascii")
+    before = f" {attrs}" if attrs else ""
+    styled = f" style='{style}'" if style else ""
+    return f"<img{before} alt='{_e(alt)}'{styled} src='data:image/png;base64,{b64}'/>"
+
+
 def advice_text(advice: Advice, limit: int | None = None) -> str:
     lines = [f"plotwise advice — task: {advice.task or 'any'} — {advice.profile.rows} rows, "
              f"{len(advice.profile.fields)} columns"]
@@ -146,10 +155,7 @@ def advice_html(advice: Advice, image: bool = True, profile: bool = False, png: 
         if png is None:
             fig = advice.show()
             png, size = figure_png(fig, DISPLAY_SCALE), logical_size(fig)
-        b64 = base64.b64encode(png).decode("ascii")
-        width = f" width='{size[0]}'" if size else ""
-        parts.append(f"<img{width} alt='{_e(alt_text(advice))}' "
-                     f"src='data:image/png;base64,{b64}'/>")
+        parts.append(img_tag(png, alt_text(advice), f"width='{size[0]}'" if size else ""))
     parts.append("<h4>Hazards</h4>" + hazards_html(advice.hazards))
     if advice.surprises:
         parts.append("<h4>Worth a second look</h4>" + surprises_html(advice.surprises))
@@ -250,11 +256,9 @@ def alternatives_html(advice: Advice, why: tuple[str, ...] = (), sheet: bool = F
     for kind in why:
         parts.append(f"<h4>Why not a {_e(kind)}?</h4>" + advice.why_not(kind)._repr_html_())
     if sheet:
-        b64 = base64.b64encode(figure_png(advice.sheet())).decode("ascii")
         kinds = ", ".join(dict.fromkeys(d.kind for d in advice.designs if d.expressive))
-        parts.append("<h4>Every design worth a look</h4>"
-                     f"<img alt='{_e('sheet of the expressive designs: ' + kinds)}' "
-                     f"src='data:image/png;base64,{b64}'/>")
+        parts.append("<h4>Every design worth a look</h4>" + img_tag(
+            figure_png(advice.sheet()), "sheet of the expressive designs: " + kinds))
     return "".join(parts)
 
 

@@ -17,7 +17,7 @@ from plotwise.drawing.codegen import short
 from plotwise.engine.memo import FrameMemo, using
 from plotwise.engine.rules import TASKS
 from plotwise.errors import PlotwiseError
-from plotwise.notebook.display import advice_html, alt_text, figure_png, hazards_html, surprises_html
+from plotwise.notebook.display import advice_html, alt_text, figure_png, hazards_html, img_tag, surprises_html
 from plotwise.pipeline import advise
 
 
@@ -36,13 +36,6 @@ def _known(value, options) -> str:
         return AUTO
     label = str(value)
     return label if any(v == label for _, v in options) else AUTO
-
-
-def image_html(png: bytes, alt: str, cls: str, max_width: str) -> str:
-    """A PNG as an <img> element with alt text (the panel's images)."""
-    b64 = base64.b64encode(png).decode("ascii")
-    return (f"<img class='{cls}' alt='{_escape(alt)}' style='max-width:{max_width};width:100%' "
-            f"src='data:image/png;base64,{b64}'/>")
 
 
 def _chosen(control):
@@ -137,7 +130,8 @@ class AdvicePanel(widgets.VBox):
         self._cache[self._key(a)] = (a, self._top_png)
         if self._on_advice is not None:
             self._on_advice(a, self._top_png)
-        self.top_image.value = image_html(self._top_png, alt_text(a), "pw-top", "100%")
+        self.top_image.value = img_tag(self._top_png, alt_text(a), "class='pw-top'",
+                                       "max-width:100%;width:100%")
         self.hazards.value = hazards_html(a.hazards) + (
             "<b>Worth a second look</b>" + surprises_html(a.surprises) if a.surprises else "")
         self._busy = True
@@ -163,9 +157,9 @@ class AdvicePanel(widgets.VBox):
             key = self._key(self.advice) + (index, d.options.bins)
             if key not in self._details:
                 self._details[key] = figure_png(self.advice.draw(d).figure)
-            self.detail_image.value = image_html(
+            self.detail_image.value = img_tag(
                 self._details[key], f"design {index + 1} of the ranked list: {d.summary()}",
-                "pw-detail", "620px")
+                "class='pw-detail'", "max-width:620px;width:100%")
             self.message.value = ""
         except PlotwiseError as exc:
             self.message.value = f"<span style='color:var(--jp-error-color1,#B00020)'>{_escape(exc)}</span>"
