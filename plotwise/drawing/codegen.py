@@ -27,43 +27,64 @@ if _missing:  # a kind in the registry without a generator would fail only when 
     raise ImportError(f"plotwise.drawing has no generator for the chart kind(s) {_missing}")
 
 
-def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
-    """Engine data: the query that runs in the engine, then ``d`` (or ``counts``) in pandas."""
-    from plotwise.sources.queries import bins_expr, chained, grouped_expr, sample_expr
+def engine_queries(design: Design, profile: Profile, frame: str) -> list[tuple[str, str]]:
+    """Engine data: the query a design's snippet runs in the engine, as (variable, expression):
+    the per-group rows (``agg``), the bin counts (``counts``) or the sampled rows (``d``)."""
+    from plotwise.sources.queries import bins_expr, grouped_expr, sample_expr
 
     src = profile.source
-    name = src.engine_name
     mode = engine_mode(design)
     n = design.options.complete_rows
     quantitative = [c for c in design.columns if profile.fields[c].level == "quantitative"]
     if mode == "bins":
         lo, width, k, log = engine_bins(design)
-        return [f"# {name} counts all {n:,} rows into {k} bins; only the counts come back.",
-                f"counts = {chained(bins_expr(src, design.x, lo, width, k, log, frame), 9)}",
-                f"counts = counts.reindex(range({k}), fill_value=0).to_numpy()"]
+        return [("counts", bins_expr(src, design.x, lo, width, k, log, frame))]
     if mode == "groups":
         keys = engine_keys(design)
         measure = None if len(keys) == len(design.columns) else design.y
         stat = "median" if design.stat == "median" else "sum"
+        return [("agg", grouped_expr(src, keys, measure, stat, finite=measure in quantitative,
+                                     frame=frame))]
+    k = (design.options.engine_sample or n)
+    return [("d", sample_expr(src, design.columns, k, n, complete=not design.options.matrix,
+                              finite=tuple(quantitative), frame=frame))]
+
+
+def query_line(name: str, expr: str) -> str:
+    """``name = expr``, the expression split into one call a line when long."""
+    from plotwise.sources.queries import chained
+
+    return f"{name} = " + chained(expr, len(name) + 3)
+
+
+def engine_lines(design: Design, profile: Profile, frame: str) -> list[str]:
+    """Engine data: the query that runs in the engine, then ``d`` (or ``counts``) in pandas."""
+    name = profile.source.engine_name
+    mode = engine_mode(design)
+    n = design.options.complete_rows
+    (var, expr), = engine_queries(design, profile, frame)
+    query = query_line(var, expr)
+    if mode == "bins":
+        _, _, k, _ = engine_bins(design)
+        return [f"# {name} counts all {n:,} rows into {k} bins; only the counts come back.",
+                query, f"counts = counts.reindex(range({k}), fill_value=0).to_numpy()"]
+    if mode == "groups":
+        keys = engine_keys(design)
+        measure = None if len(keys) == len(design.columns) else design.y
         cnt = engine_count_name(design)
         lines = [f"# {name} computes one row per group from all {n:,} rows; only those come back.",
-                 "agg = " + chained(grouped_expr(src, keys, measure, stat,
-                                                  finite=measure in quantitative, frame=frame), 6)]
+                 query]
         items = [f"{c!r}: {column_expr(profile.fields[c], 'agg')}" for c in keys]
         if measure:
             items.append(f"{measure!r}: agg[{measure!r}].astype(\"float64\")")
         items.append(f"{cnt!r}: agg[{cnt!r}]")
         return lines + [f"d = pd.DataFrame({{{', '.join(items)}}}, copy=False).dropna()"]
     k = (design.options.engine_sample or n)
-    cols = design.columns
-    fin = tuple(quantitative)
     what = (f"a random sample of about {k:,} of the {n:,} complete rows" if n > k
             else f"all {n:,} complete rows")
-    picked = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in cols)
+    picked = ", ".join(f"{c!r}: {column_expr(profile.fields[c], 'd')}" for c in design.columns)
     drop = "" if design.options.matrix else ".dropna()"
-    return [f"# {name} picks {what}; only those come back.",
-            "d = " + chained(sample_expr(src, cols, k, n, complete=not design.options.matrix,
-                                         finite=fin, frame=frame), 4),
+    return [f"# {name} picks {what}; only those come back.", query,
             f"d = pd.DataFrame({{{picked}}}, copy=False){drop}"]
 
 

@@ -19,7 +19,7 @@ from matplotlib.figure import Figure
 from matplotlib.text import Text
 from matplotlib.ticker import FixedFormatter
 
-from plotwise.drawing.codegen import body_lines, short
+from plotwise.drawing.codegen import body_lines, engine_queries, query_line, short
 from plotwise.drawing.marks import mark_surprises
 from plotwise.engine.conditions import drawn_labels
 from plotwise.engine.design import Design
@@ -96,11 +96,19 @@ def draw(design: Design, df, ax: Axes, profile: Profile | None = None) -> Axes:
     profile = profile or design.profile
     if profile is None:
         raise PlotwiseError("this design was not made by plotwise.advise(); call advise() first.")
-    code = "\n".join(body_lines(design, profile, "df"))
+    lines = body_lines(design, profile, "df")
     namespace = {"pd": pd, "np": np, "sns": sns, "mpl": mpl, "mdates": mdates, "ax": ax,
                  "df": df}
     if profile.source is not None:  # engine data: the queries need the engine's namespace
         namespace.update({k: v for k, v in profile.source.namespace().items() if k != "df"})
+        # The snippet's query, evaluated by the Source: the same text, asked of the engine
+        # once however many of the shown designs ask it.
+        for var, expr in engine_queries(design, profile, "df"):
+            line = query_line(var, expr)
+            if line in lines and df is profile.source.native:
+                namespace[var] = profile.source.run(expr)
+                lines.remove(line)
+    code = "\n".join(lines)
     try:
         fig = ax.figure  # (small multiples replace ``ax`` by a grid of their own)
         with plot_style():

@@ -43,6 +43,10 @@ class Source:
     path: str | None = None
     file_format: str | None = None
     computed: list[str] = field(default_factory=list)  # what the engine computed, in words
+    # Each query's answer, by its text: a design drawn again, or three designs that ask the
+    # engine the same question, read the data once. (Kept as long as this Source: one advice,
+    # or one panel's frame memo.)
+    answers: dict[str, object] = field(default_factory=dict, repr=False)
 
     @property
     def engine_name(self) -> str:
@@ -58,7 +62,15 @@ class Source:
         return ns
 
     def run(self, expr: str):
-        """Evaluate one engine expression built by the functions below."""
+        """Evaluate one engine expression built by the functions below (once per text)."""
+        if expr not in self.answers:
+            self.answers[expr] = self._evaluate(expr)
+        answer = self.answers[expr]
+        # a shallow copy: under copy-on-write the caller's changes never reach the kept answer
+        return answer.copy(deep=False) if isinstance(answer, (pd.DataFrame, pd.Series)) \
+            else answer
+
+    def _evaluate(self, expr: str):
         try:
             with quiet():
                 return eval(compile(expr, f"<plotwise {self.engine} query>", "eval"), self.namespace())  # noqa: S307

@@ -37,10 +37,73 @@ def column_moments(src: Source, numeric: dict[str, float], others: list[str],
     ones also the finite count, min, max and the sums of (x − c)^1..3 about ``c`` (a centre
     taken from the sample, which keeps the power sums numerically stable). Dask also collects
     the distinct values of the ``labels`` columns in the same pass (every Dask query rereads
-    the data); other engines answer distinct_values() separately."""
+    the data), and DuckDB in grouping sets of the same query; other engines answer
+    distinct_values() separately."""
     if src.engine == "dask":
         return _dask_moments(src, numeric, others, labels)
+    if src.engine == "duckdb":
+        return _duckdb_moments(src, numeric, others, floats, labels)
     return _narwhals_moments(src, numeric, others, floats)
+
+
+def _quoted(name: str) -> str:
+    return '"' + name.replace('"', '""') + '"'
+
+
+def _duckdb_moments(src: Source, numeric: dict[str, float], others: list[str], floats: set[str],
+                    labels: tuple) -> dict[str, dict]:
+    """column_moments() for DuckDB: one aggregate query (the expressions narwhals writes for
+    the other engines) whose grouping sets also return the distinct values of the ``labels``
+    columns, so the profile reads the data once however many columns have few labels."""
+    names: list[tuple[str, str]] = []
+    exprs: list[str] = []
+
+    def add(sql: str, c: str, what: str) -> None:
+        names.append((c, what))
+        exprs.append(f"{sql} AS e{len(exprs)}")
+
+    for c in list(numeric) + others:
+        q = _quoted(c)
+        add(f"count(*) - count({q})" + (f" + count_if(isnan({q}))" if c in floats else ""),
+            c, "missing")
+    for c, centre in numeric.items():
+        q = _quoted(c)
+        v = f"(CASE WHEN isfinite({q}) THEN CAST({q} AS DOUBLE) END)"
+        d = f"({v} - {float(centre)!r}::DOUBLE)"
+        add(f"count({v})", c, "finite")
+        add(f"min({v})", c, "min")
+        add(f"max({v})", c, "max")
+        add(f"sum({d})", c, "s1")
+        add(f"sum({d} * {d})", c, "s2")
+        add(f"sum({d} * {d} * {d})", c, "s3")
+    keys = [_quoted(c) for c in labels]
+    select = [f"GROUPING({k}) AS g{i}" for i, k in enumerate(keys)] + keys + exprs
+    sets = "GROUPING SETS ((), " + ", ".join(f"({k})" for k in keys) + ")" if keys else ""
+    with quiet():
+        frame = src.native.aggregate(", ".join(select), sets).df()
+    grouped = [frame[f"g{i}"].to_numpy() for i in range(len(keys))]
+    whole = np.ones(len(frame), dtype=bool)
+    for g in grouped:
+        whole &= g == 1
+    row = frame.loc[whole].iloc[0]
+    out: dict[str, dict] = {}
+    for i, (c, what) in enumerate(names):
+        v = row[f"e{i}"]
+        out.setdefault(c, {})[what] = None if pd.isna(v) else float(v)
+    for i, c in enumerate(labels):
+        values = _plain(frame.iloc[:, len(keys) + i][grouped[i] == 0].dropna())
+        out.setdefault(c, {})["labels"] = [u for u in values if u == u]
+    return out
+
+
+def _plain(s: pd.Series) -> pd.Series:
+    """A column of nullable integers or booleans (how DuckDB hands back a column that held
+    NULLs) as plain numpy values, as a column without missing values comes back."""
+    numpy_dtype = getattr(s.dtype, "numpy_dtype", None)
+    if isinstance(s.dtype, pd.api.extensions.ExtensionDtype) and numpy_dtype is not None \
+            and numpy_dtype.kind in "iub":
+        return s.astype(numpy_dtype)
+    return s
 
 
 def _dask_moments(src: Source, numeric: dict[str, float], others: list[str],
@@ -128,7 +191,7 @@ def moments_to_stats(m: dict, centre: float) -> dict:
 
 def distinct_values(src: Source, col: str, limit: int) -> list | None:
     """Every distinct non-missing value of ``col`` when there are at most ``limit``; else None.
-    (Dask gets its labels in column_moments' single pass instead.)"""
+    (Dask and DuckDB get their labels in column_moments' single pass instead.)"""
     # A hash aggregate (streams in every engine) rather than unique(), which some engines run as
     # a window over all rows.
     expr = (f"nw.from_native(df).lazy().select({[col]!r}).drop_nulls().group_by({[col]!r})"
@@ -198,7 +261,8 @@ def _exact_field(src: Source, fp, m: dict, n: int, centre: float | None, few: bo
         if stats["skew"] is not None and fp.skew is not None:
             fp.skew = stats["skew"]
     if few:
-        labels = m.get("labels") if src.engine == "dask" else distinct_values(src, c, limit)
+        labels = (m.get("labels") if src.engine in ("dask", "duckdb")
+                  else distinct_values(src, c, limit))
         if labels is not None and len(labels) > limit:
             labels = None
         if labels is not None:

@@ -129,9 +129,19 @@ def sample_expr(src: Source, cols: list[str], k: int, n: int, complete: bool = T
     if src.engine == "spark":  # Bernoulli sample on the executors: about k rows
         return f"{base}.to_native().sample(fraction={frac:.6g}, seed=0).toPandas()"
     if src.engine == "duckdb":  # reservoir sample inside DuckDB: exactly k rows
-        return (f'{base}.to_native().query("t", "SELECT * FROM t USING SAMPLE reservoir({k} ROWS) '
-                'REPEATABLE (0)").df()')
+        return (f'{base}.to_native().query("t", "SELECT * FROM {_bernoulli_first(k, n)}USING '
+                f'SAMPLE reservoir({k} ROWS) REPEATABLE (0)").df()')
     return f"{base}.collect().sample(n={k}, seed=0).to_pandas()"  # in memory already
+
+
+def _bernoulli_first(k: int, n: int) -> str:
+    """A reservoir sample keeps every row in one thread; on many rows a seeded Bernoulli pass
+    (parallel) first keeps a little more than k of them (six binomial standard deviations more,
+    so fewer than k is a one-in-a-billion event), and the reservoir then takes exactly k of
+    those: still a simple random sample of k rows, at about half the cost on 20 million rows
+    (benchmarks/engines.py)."""
+    pct = 100 * (k + 6 * k ** 0.5 + 100) / n
+    return "t " if pct > 50 else f"(SELECT * FROM t USING SAMPLE {pct:.6g}% (bernoulli, 0)) "
 
 
 def bins_expr(src: Source, col: str, lo: float, width: float, k: int, log: bool = False,

@@ -1,0 +1,101 @@
+"""How often plotwise reads engine data: counted by DuckDB itself. The tests open their own
+DuckDB connection with its query log on (DuckDB's `QueryLog`), hand plotwise a relation on a
+Parquet file of that connection, and count the statements that read the file.
+
+The frame is generated (seeded numpy): it only has to be larger than the profile sample, so that
+the sampled path is the one counted."""
+
+from __future__ import annotations
+
+import re
+
+import numpy as np
+import pandas as pd
+import pytest
+
+import plotwise
+from plotwise.engine.rules import THRESHOLDS
+
+duckdb = pytest.importorskip("duckdb")
+
+ROWS = THRESHOLDS["profile_sample"] + 50_000
+QUESTIONS = [("compare", "region", "amount"), ("trend", "day", "amount"),
+             ("proportion", "region", "amount"), ("correlate", "amount", "score"),
+             ("distribution", "amount", None)]
+
+
+@pytest.fixture(scope="module")
+def logged(tmp_path_factory):
+    """A DuckDB connection logging every query, and a relation on a Parquet file of ROWS rows."""
+    rng = np.random.default_rng(11)
+    amount = rng.lognormal(3, 0.8, ROWS)
+    df = pd.DataFrame({
+        "region": rng.choice([f"region {c}" for c in "ABCDEFGH"], ROWS),
+        "day": np.datetime64("2024-01-01") + rng.integers(0, 365, ROWS).astype("timedelta64[D]"),
+        "amount": amount,
+        "score": 2 * np.log(amount) + rng.normal(0, 1, ROWS),
+        "units": rng.integers(1, 6, ROWS),
+    })
+    path = tmp_path_factory.mktemp("passes") / "sales.parquet"
+    df.to_parquet(path)
+    con = duckdb.connect()
+    con.execute("SET enable_progress_bar = false")
+    con.execute("CALL enable_logging('QueryLog')")
+    return con, con.read_parquet(str(path))
+
+
+def reads(con, since: int) -> tuple[int, list[str]]:
+    """(statements logged so far, the statements after ``since`` that read the data). A view
+    that ``relation.query`` makes and drops reads nothing; ``SELECT count()`` of a Parquet file
+    is answered from the file's footer (DuckDB reads no rows for it)."""
+    log = [m for (m,) in con.execute(
+        "SELECT message FROM duckdb_logs WHERE type = 'QueryLog' ORDER BY timestamp").fetchall()]
+    data = [m for m in log[since:]
+            if "parquet_scan" in m and not re.match(r"\s*(CREATE|DROP)\b", m)
+            and not re.match(r'\s*SELECT count\(\) AS "len" FROM parquet_scan\([^)]*\) AS "\w+" '
+                             r"GROUP BY ALL\s*$", m)]
+    return len(log), data
+
+
+@pytest.mark.parametrize("task,x,y", QUESTIONS)
+def test_advice_reads_engine_data_at_most_three_times(logged, task, x, y):
+    """One pass for the seeded sample, one for every column's counts, moments and labels, and
+    at most one for the designs' group statistics — whatever the task."""
+    con, rel = logged
+    start, _ = reads(con, 0)
+    a = plotwise.advise(rel, task, x=x, y=y)
+    done, data = reads(con, start)
+    assert a.profile.sample_rows == THRESHOLDS["profile_sample"]
+    assert len(data) <= 3, "\n\n".join(data)
+    # the profile's labels came from the engine: all eight regions, exact
+    assert sorted(a.fields["region"].labels) == [f"region {c}" for c in "ABCDEFGH"]
+    fig = a.show()
+    try:
+        _, drawn = reads(con, done)
+    finally:
+        import matplotlib.pyplot as plt
+
+        plt.close(fig)
+    # the three designs shown ask each distinct query once
+    assert len(drawn) == len(set(drawn)), "\n\n".join(drawn)
+
+
+def test_designs_that_ask_the_same_question_read_the_data_once(logged):
+    """Bar, dot and lollipop of one comparison draw the same group totals: one engine query
+    for the three, and drawing them again asks none."""
+    import matplotlib.pyplot as plt
+
+    con, rel = logged
+    a = plotwise.advise(rel, "compare", x="region", y="amount")
+    designs = [a.design(k) for k in ("bar", "dot", "lollipop")]
+    counts = []
+    for _ in range(2):
+        start, _ = reads(con, 0)
+        fig = plt.figure()
+        try:
+            for d, ax in zip(designs, fig.subplots(1, 3)):
+                a.draw(d, ax=ax)
+        finally:
+            plt.close(fig)
+        counts.append(len(reads(con, start)[1]))
+    assert counts == [1, 0]
