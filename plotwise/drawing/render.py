@@ -99,30 +99,33 @@ def draw(design: Design, df, ax: Axes, profile: Profile | None = None) -> Axes:
     lines = body_lines(design, profile, "df")
     namespace = {"pd": pd, "np": np, "sns": sns, "mpl": mpl, "mdates": mdates, "ax": ax,
                  "df": df}
-    if profile.source is not None:  # engine data: the queries need the engine's namespace
-        namespace.update({k: v for k, v in profile.source.namespace().items() if k != "df"})
-        # The snippet's query, evaluated by the Source: the same text, asked of the engine
-        # once however many of the shown designs ask it.
-        for var, expr in engine_queries(design, profile, "df"):
-            line = query_line(var, expr)
-            if line in lines and df is profile.source.native:
-                namespace[var] = profile.source.run(expr)
-                lines.remove(line)
-    code = "\n".join(lines)
     try:
+        if profile.source is not None:  # engine data: the queries need the engine's namespace
+            namespace.update({k: v for k, v in profile.source.namespace().items() if k != "df"})
+            # The snippet's query, evaluated by the Source: the same text, asked of the engine
+            # once however many of the shown designs ask it.
+            for var, expr in engine_queries(design, profile, "df"):
+                line = query_line(var, expr)
+                if line in lines and df is profile.source.native:
+                    namespace[var] = profile.source.run(expr)
+                    lines.remove(line)
         fig = ax.figure  # (small multiples replace ``ax`` by a grid of their own)
         with plot_style():
-            exec(compile(code, f"<plotwise {design.kind}>", "exec"), namespace)  # noqa: S102
+            exec(compile("\n".join(lines), f"<plotwise {design.kind}>", "exec"), namespace)  # noqa: S102
             literal_text(fig.axes, fig)  # also on the caller's own figure
-    except PlotwiseError:
-        raise
+    except PlotwiseError as exc:
+        if exc.__cause__ is None:  # plotwise's own refusal, already worded for the reader
+            raise
+        raise cannot_draw(design, str(exc)) from exc.__cause__
     except Exception as exc:  # the drawing libraries' errors become one readable message
-        raise PlotwiseError(
-            f"could not draw the {design.title} design of {', '.join(map(repr, design.columns))}: "
-            f"{type(exc).__name__}: {short(str(exc), 200)}. Try another design from "
-            "advice.designs, or check the columns' values."
-        ) from exc
+        raise cannot_draw(design, f"{type(exc).__name__}: {short(str(exc), 200)}") from exc
     return ax
+
+
+def cannot_draw(design: Design, why: str) -> PlotwiseError:
+    return PlotwiseError(
+        f"could not draw the {design.title} design of {', '.join(map(repr, design.columns))}: "
+        f"{why}. Try another design from advice.designs, or check the columns' values.")
 
 
 def panel_height(designs: list[Design]) -> float:
@@ -136,6 +139,18 @@ def panel_title(rank: int, design: Design) -> str:
     return f"{rank} · {short(design.title, 48)} · score {design.score:.2f}"
 
 
+def ask_together(designs: list[Design], df) -> None:
+    """On engine data, the queries of every design about to be drawn go to the engine together
+    (Dask: one ``dask.compute`` for them all); each design then finds its answer kept."""
+    for design in designs:
+        src = design.profile.source if design.profile is not None else None
+        if src is not None and df is src.native:
+            # (should the engine refuse, each design asks again and reports its own error)
+            src.prefetch([expr for d in designs if d.profile is design.profile
+                          for _, expr in engine_queries(d, d.profile, "df")])
+            return
+
+
 def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = None,
              notes: list[str] | None = None, surprises: list[Surprise] | None = None,
              prefix: str = "") -> Figure:
@@ -144,6 +159,7 @@ def draw_row(designs: list[Design], df: pd.DataFrame, ranks: list[int] | None = 
     if not designs:
         raise PlotwiseError("there are no designs to draw.")
     ranks = ranks or list(range(1, len(designs) + 1))
+    ask_together(designs, df)
     with plot_style():
         fig = LiteralFigure(figsize=(PANEL_WIDTH_IN * len(designs), panel_height(designs)),
                      layout="constrained")

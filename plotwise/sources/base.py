@@ -70,6 +70,24 @@ class Source:
         return answer.copy(deep=False) if isinstance(answer, (pd.DataFrame, pd.Series)) \
             else answer
 
+    def prefetch(self, exprs: list[str]) -> None:
+        """Answer several queries at once where the engine can: Dask computes them all in one
+        ``dask.compute`` (each query text ends in ``.compute()``); other engines answer each in
+        turn when it is run."""
+        todo = [e for e in dict.fromkeys(exprs) if e not in self.answers]
+        if self.engine != "dask" or len(todo) < 2 or \
+                not all(e.endswith(".compute()") for e in todo):
+            return
+        import dask
+
+        try:
+            lazy = [self._evaluate(e[:-len(".compute()")]) for e in todo]
+            with quiet():
+                answers = dask.compute(*lazy)
+        except Exception:  # noqa: BLE001  each query, run alone, reports its own error
+            return
+        self.answers.update(zip(todo, answers))
+
     def _evaluate(self, expr: str):
         try:
             with quiet():

@@ -211,7 +211,15 @@ def profile_source(src: Source):
     from plotwise.engine.profile import Profile, check_frame, profile_series
     from plotwise.engine.rules import THRESHOLDS
 
-    n = row_count(src)
+    limit = THRESHOLDS["max_categories"]
+    facts = None
+    if src.engine == "dask":  # one pass for the count, every column's numbers and labels
+        from plotwise.sources.partitions import dask_facts
+
+        facts = dask_facts(src.native, limit)
+        n = facts.rows
+    else:
+        n = row_count(src)
     if n == 0:
         raise PlotwiseError(f"the {src.kind} has no rows; advise on data with rows in it.")
     k = min(THRESHOLDS["profile_sample"],
@@ -233,15 +241,36 @@ def profile_source(src: Source):
     numeric = {c: (fp.mean if fp.mean is not None else 0.0) for c, fp in fields.items()
                if fp.minimum is not None and not fp.is_timedelta}
     floats = {c for c in src.columns if pd.api.types.is_float_dtype(sample[c].dtype)}
-    limit = THRESHOLDS["max_categories"]
     few = tuple(c for c, fp in fields.items()
                 if n > len(sample) and fp.distinct <= limit and fp.level != "quantitative")
-    moments = column_moments(src, numeric, [c for c in src.columns if c not in numeric], floats,
-                             few)
+    others = [c for c in src.columns if c not in numeric]
+    if facts is None:
+        moments = column_moments(src, numeric, others, floats, few)
+    else:
+        moments = _from_facts(facts, numeric, few)
+        # a column the pass could not cover (numbers held as text, labels of a float column)
+        rest = {c: m for c, m in numeric.items() if c not in facts.moments}
+        more = tuple(c for c in few if c not in facts.labels)
+        if rest or more:
+            for c, m in column_moments(src, rest, [], floats, more).items():
+                moments.setdefault(c, {}).update({k: v for k, v in m.items() if k != "missing"})
     for c, fp in fields.items():
         _exact_field(src, fp, moments.get(c, {}), n, numeric.get(c), c in few, len(sample))
     return Profile(rows=n, fields=fields, sample_rows=None if n <= k else len(sample),
                    source=src), sample
+
+
+def _from_facts(facts, numeric: dict[str, float], few: tuple) -> dict[str, dict]:
+    """column_moments()' answer from the Dask pass's combined facts."""
+    out: dict[str, dict] = {c: {"missing": float(m)} for c, m in facts.missing.items()}
+    for c, centre in numeric.items():
+        if c in facts.moments:
+            out[c].update(facts.moments[c].power_sums(centre))
+    for c in few:
+        if c in facts.labels:
+            labels = facts.labels[c]
+            out[c]["labels"] = None if labels is None else [u for u in labels if u == u]
+    return out
 
 
 def _exact_field(src: Source, fp, m: dict, n: int, centre: float | None, few: bool,

@@ -96,7 +96,7 @@ def grouped_expr(src: Source, keys: list[str], y: str | None, stat: str = "sum",
             base += f".assign({_keyword(sq, f'lambda t: t[{y!r}] ** 2')})"
             parts.append(_keyword(sq, f"({sq!r}, 'sum')"))
         return (f"{base}.groupby({keys!r}, observed=True).agg({', '.join(parts)})"
-                ".compute().reset_index()")
+                ".reset_index().compute()")
     if src.engine == "pyarrow" and stat == "median" and y:
         # PyArrow's grouped median is approximate (a t-digest); the table is in memory, so the
         # used columns go to pandas for an exact median.

@@ -99,3 +99,49 @@ def test_designs_that_ask_the_same_question_read_the_data_once(logged):
             plt.close(fig)
         counts.append(len(reads(con, start)[1]))
     assert counts == [1, 0]
+
+
+@pytest.fixture
+def dask_computes(monkeypatch):
+    """Count every dask.compute (a collection's .compute() and len() go through it too)."""
+    base = pytest.importorskip("dask.base")
+    import dask
+
+    calls = []
+    real = base.compute
+
+    def counting(*args, **kwargs):
+        calls.append(len(args))
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(base, "compute", counting)
+    monkeypatch.setattr(dask, "compute", counting)
+    return calls
+
+
+@pytest.mark.filterwarnings("ignore:Sending large graph")
+@pytest.mark.parametrize("task,x,y", QUESTIONS)
+def test_dask_profile_takes_two_computes_and_the_shown_designs_one(logged, dask_computes,
+                                                                   task, x, y):
+    """Every Dask query rereads the data: the profile's counts, moments and labels share one
+    compute, the seeded sample takes a second, the designs' group statistics a third, and the
+    three designs shown are computed together."""
+    import dask.dataframe as dd
+    import matplotlib.pyplot as plt
+
+    con, rel = logged
+    df = rel.df()
+    ddf = dd.from_pandas(df, npartitions=3)
+    a = plotwise.advise(ddf, task, x=x, y=y)
+    assert len(dask_computes) <= 3
+    # exact, although every partition reported its own: pandas on the whole frame agrees
+    col = y or x
+    assert a.fields[col].mean == pytest.approx(df[col].mean(), rel=1e-12)
+    assert a.fields[col].std == pytest.approx(df[col].std(), rel=1e-10)
+    assert a.fields[col].skew == pytest.approx(df[col].skew(), rel=1e-8)
+    assert a.fields["units"].distinct == 5
+    assert sorted(a.fields["region"].labels) == [f"region {c}" for c in "ABCDEFGH"]
+    dask_computes.clear()
+    fig = a.show()
+    plt.close(fig)
+    assert len(dask_computes) == 1
