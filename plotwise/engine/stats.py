@@ -141,10 +141,38 @@ def point_sample(used: pd.DataFrame, k: int | None = None) -> pd.DataFrame:
     return used.iloc[take]
 
 
+def time_codes(values: pd.Series) -> tuple[np.ndarray, pd.Index] | None:
+    """Integer codes of a timestamp column without missing values, sorted by time, without a
+    hash table: the timestamps are whole steps of their common step (days, say) after the first,
+    so each one's step number indexes a count table as long as the span. (pandas sizes the hash
+    table of a factorisation by the number of rows: 40 MB for a million timestamps.) None when
+    the span would be long (irregular times): then a factorisation is cheaper."""
+    if not pd.api.types.is_datetime64_dtype(values.dtype) or not len(values):
+        return None
+    raw = values.to_numpy()
+    ticks = raw.view("i8")
+    lo = int(ticks.min())
+    codes = ticks - lo
+    step = int(np.gcd.reduce(codes)) or 1
+    span = int(codes.max()) // step + 1
+    if span > max(4 * len(codes), 1_000_000):
+        return None
+    np.floor_divide(codes, step, out=codes)
+    present = np.bincount(codes, minlength=span) > 0
+    index = np.cumsum(present) - 1
+    np.take(index, codes, out=codes)
+    times = (lo + step * np.flatnonzero(present)).astype("i8").view(raw.dtype)
+    return codes, pd.DatetimeIndex(times, tz=getattr(values.dtype, "tz", None))
+
+
 def category_codes(values: pd.Series, known: tuple = ()) -> tuple[np.ndarray, pd.Index]:
     """Integer codes of a category column. With the profile's labels known, codes come from a
     lookup in a table of those few labels (a fraction of the memory of hashing every row); any
-    value not among them falls back to a full factorisation, so the result is always exact."""
+    value not among them falls back to a full factorisation, so the result is always exact.
+    Timestamps get step numbers (time_codes) when their span is short."""
+    timed = time_codes(values) if not values.hasnans else None
+    if timed is not None:
+        return timed
     arrow = (getattr(values.dtype, "storage", None) == "pyarrow"
              or isinstance(values.dtype, pd.ArrowDtype))
     if known and not arrow:  # (Arrow-backed text factorizes in Arrow, cheaper than any lookup)
@@ -160,6 +188,29 @@ def category_codes(values: pd.Series, known: tuple = ()) -> tuple[np.ndarray, pd
     return codes, pd.Index(uniques)
 
 
+def group_sizes(d: pd.DataFrame, keys: list[str], known: dict | None = None) -> pd.Series:
+    """Rows per combination of ``keys`` present in ``d`` (no missing values), in sorted key
+    order, as ``d.groupby(keys).size()`` gives them, counted from integer codes (numpy.bincount)
+    rather than a hash table of every row. ``known``: the profile's labels per key, if any."""
+    codes, levels = [], []
+    for c in keys:
+        k, u = category_codes(d[c], (known or {}).get(c) or ())
+        codes.append(k)
+        levels.append(u)
+    combined = np.zeros(len(d), dtype=np.int64)
+    for k, u in zip(codes, levels):
+        combined *= len(u)
+        combined += k
+    counts = np.bincount(combined, minlength=int(np.prod([len(u) for u in levels])))
+    present = np.flatnonzero(counts)
+    if len(keys) == 1:
+        index = levels[0][present]
+    else:
+        index = pd.MultiIndex(levels=levels, codes=np.unravel_index(
+            present, [len(u) for u in levels]), names=keys)
+    return pd.Series(counts[present], index=index)
+
+
 def grouped(used: pd.DataFrame, x: str, y: str | None, known: tuple = ()) -> GroupSums:
     """One pass over the categories, then sums, counts and sums of squares per group
     (numpy.bincount): totals and means are exact, spreads computed analytically."""
@@ -170,6 +221,15 @@ def grouped(used: pd.DataFrame, x: str, y: str | None, known: tuple = ()) -> Gro
         g.sum = np.bincount(codes, weights=yv, minlength=len(uniques))
         g.sumsq = np.bincount(codes, weights=yv * yv, minlength=len(uniques))
     return g
+
+
+def per_group(used: pd.DataFrame, x: str, y: str, how: str, known: tuple = ()) -> pd.Series:
+    """The sum or mean of ``y`` per value of ``x`` (sorted), from grouped() — as
+    ``used.groupby(x)[y].agg(how)`` gives it, without a hash table of every row."""
+    g = grouped(used, x, y, known)
+    keep = g.count > 0
+    v = g.sum if how == "sum" else g.sum / np.where(keep, g.count, 1)
+    return pd.Series(v[keep], index=g.labels[keep], name=y)
 
 
 def gap_from_sums(g: GroupSums) -> MeanGap | None:
@@ -276,7 +336,7 @@ def _time_gaps(job: _Job, out: DesignStats) -> None:
     x = job.x
     if job.task != "trend" or not x or not pd.api.types.is_datetime64_any_dtype(job.used[x].dtype):
         return
-    t = pd.Series(out.values.index if job.exact is not None and out.values is not None
+    t = pd.Series(out.values.index if out.values is not None
                   else job.used[x].unique()).sort_values()
     steps = t.diff().dropna()
     if len(steps) >= 2:

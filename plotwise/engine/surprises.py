@@ -23,6 +23,7 @@ from plotwise.engine.meaning import name_says
 from plotwise.engine.memo import memo_get, within_one_call
 from plotwise.engine.profile import FieldProfile, Profile
 from plotwise.engine.rules import NON_NEGATIVE_NAME_HINTS, SURPRISE_THRESHOLDS
+from plotwise.engine.stats import group_sizes, per_group
 from plotwise.engine.vocab import SEVERITIES
 from plotwise.engine.working import working_frame
 
@@ -353,7 +354,8 @@ def _level_shift(ctx: SurpriseContext) -> list[Surprise]:
     parts = [(None, d)] if not ctx.hue else list(d.groupby(ctx.hue, observed=True, sort=True))[:8]
     best = None
     for g, part in parts:
-        series = part.groupby(ctx.x, observed=True, sort=True)[ctx.y].agg(how)
+        series = (part.groupby(ctx.x, observed=True, sort=True)[ctx.y].median() if how == "median"
+                  else per_group(part, ctx.x, ctx.y, how, ctx.field(ctx.x).labels))
         found = level_shift(series.to_numpy(dtype=float))
         if found and (best is None or found.evidence > best[1].evidence):
             best = (g, found, series)
@@ -554,7 +556,7 @@ def _repeated_keys(ctx: SurpriseContext) -> list[Surprise]:
         return []
     keys = [c for c in (ctx.x, ctx.hue) if c]
     d = ctx.working[keys].dropna()
-    sizes = d.groupby(keys, observed=True).size()
+    sizes = group_sizes(d, keys, {c: ctx.field(c).labels for c in keys})
     if len(sizes) < 10 or (sizes == 1).mean() < T["one_per_key"] or (sizes > 1).sum() == 0:
         return []
     many = sizes[sizes > 1]
