@@ -28,6 +28,7 @@ ENGINE_NAMES = {"polars": "Polars", "pyarrow": "PyArrow", "duckdb": "DuckDB", "d
                 "spark": "Spark"}
 FILE_FORMATS = {".parquet": "parquet", ".pq": "parquet", ".csv": "csv", ".tsv": "csv",
                 ".gz": "csv"}
+KEPT_ANSWERS = 16  # engine answers a Source keeps (see Source.keep)
 ACCEPTED = ("a pandas, Polars (eager or lazy), Dask or Spark DataFrame, a PyArrow Table, a DuckDB "
             "relation, or the path of a Parquet or CSV file")
 
@@ -64,11 +65,18 @@ class Source:
     def run(self, expr: str):
         """Evaluate one engine expression built by the functions below (once per text)."""
         if expr not in self.answers:
-            self.answers[expr] = self._evaluate(expr)
+            self.keep(expr, self._evaluate(expr))
         answer = self.answers[expr]
         # a shallow copy: under copy-on-write the caller's changes never reach the kept answer
         return answer.copy(deep=False) if isinstance(answer, (pd.DataFrame, pd.Series)) \
             else answer
+
+    def keep(self, expr: str, answer) -> None:
+        """Keep an answer; past KEPT_ANSWERS the oldest goes (a long panel session on engine
+        data asks many questions, each bringing back at most a sample)."""
+        self.answers[expr] = answer
+        while len(self.answers) > KEPT_ANSWERS:
+            del self.answers[next(iter(self.answers))]
 
     def prefetch(self, exprs: list[str]) -> None:
         """Answer several queries at once where the engine can: Dask computes them all in one
@@ -86,7 +94,8 @@ class Source:
                 answers = dask.compute(*lazy)
         except Exception:  # noqa: BLE001  each query, run alone, reports its own error
             return
-        self.answers.update(zip(todo, answers))
+        for e, answer in zip(todo, answers):
+            self.keep(e, answer)
 
     def _evaluate(self, expr: str):
         try:

@@ -145,3 +145,21 @@ def test_dask_profile_takes_two_computes_and_the_shown_designs_one(logged, dask_
     fig = a.show()
     plt.close(fig)
     assert len(dask_computes) == 1
+
+
+def test_kept_answers_are_bounded(logged):
+    """A long panel session asks many questions; the Source keeps only the latest answers, and
+    asking a kept one again reads nothing."""
+    from plotwise.sources.base import KEPT_ANSWERS, open_source
+
+    con, rel = logged
+    src = open_source(rel)
+    exprs = [f'nw.from_native(df).lazy().select(nw.len()).collect("pandas").to_native().iloc[0, 0] + {i}'
+             for i in range(KEPT_ANSWERS + 5)]
+    for e in exprs:
+        src.run(e)
+    assert list(src.answers) == exprs[-KEPT_ANSWERS:]
+    start, _ = reads(con, 0)
+    total, _ = reads(con, start)
+    assert src.run(exprs[-1]) == ROWS + KEPT_ANSWERS + 4
+    assert reads(con, 0)[0] == total + 1  # only this check's own log query
