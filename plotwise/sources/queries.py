@@ -109,6 +109,14 @@ def grouped_expr(src: Source, keys: list[str], y: str | None, stat: str = "sum",
     if sq:
         base += f".with_columns((nw.col({y!r}) ** 2).alias({sq!r}))"
         aggs.append(f"nw.col({sq!r}).sum()")
+    if src.engine == "duckdb" and any("." in k for k in keys):
+        # narwhals' DuckDB group_by reads a dot in a key's name as table.column: the keys are
+        # grouped under plain names and get their own names back in pandas.
+        plain = {k: _fresh(k.replace(".", "_"), set(cols) | {n, sq}) for k in keys if "." in k}
+        back = {v: k for k, v in plain.items()}
+        grouped = [plain.get(k, k) for k in keys]
+        return (_to_pandas(src, f"{base}.rename({plain!r}).group_by({grouped!r})"
+                                f".agg({', '.join(aggs)})") + f".rename(columns={back!r})")
     return _to_pandas(src, f"{base}.group_by({keys!r}).agg({', '.join(aggs)})")
 
 

@@ -464,3 +464,27 @@ def test_duplicate_column_names_in_an_arrow_table_are_refused():
                              names=["a", "a"])
     with pytest.raises(plotwise.PlotwiseError, match=r"duplicate column names \['a'\]"):
         plotwise.advise(t, "compare")
+
+
+def test_dotted_column_names_group_in_duckdb(to_engine):
+    """Names with dots, as R writes them (Sepal.Length), on Fisher's iris from scikit-learn:
+    narwhals' DuckDB group_by reads 'Iris.Species' as table.column, so plotwise groups under a
+    plain name and renames back; the bars equal pandas' own, and the printed code runs."""
+    df = iris().rename(columns=lambda c: c.replace(" (cm)", "").title().replace(" ", "."))
+    df = df.rename(columns={"Species": "Iris.Species"})
+    base = plotwise.advise(df, "compare", x="Iris.Species", y="Sepal.Length")
+    rel = to_engine(df, "duckdb")
+    other = plotwise.advise(rel, "compare", x="Iris.Species", y="Sepal.Length")
+    assert signature(other) == signature(base)
+    figs = [plt.figure() for _ in range(2)]
+    try:
+        base.draw(base.design("bar"), ax=figs[0].subplots())
+        other.draw(other.design("bar"), ax=figs[1].subplots())
+        ns = {"df": rel, "plt": plt}
+        exec(other.code("bar").replace("plt.show()", ""), ns)  # noqa: S102
+        figs.append(ns["fig"])
+        np.testing.assert_allclose(drawn_numbers(figs[1]), drawn_numbers(figs[0]), rtol=1e-9)
+        np.testing.assert_allclose(drawn_numbers(figs[2]), drawn_numbers(figs[0]), rtol=1e-9)
+    finally:
+        for f in figs:
+            plt.close(f)
