@@ -137,10 +137,17 @@ def legend_lines(design: Design, ax: str = "ax") -> list[str]:
             f"    sns.move_legend({ax}, \"upper left\", bbox_to_anchor=(1, 1), frameon=False)"]
 
 
+NOTE_LINE = 56  # characters of 7-point text that fit above a panel narrowed by a colour bar
+
+
 def note_lines(design: Design, ax: str = "ax") -> list[str]:
     note = design.options.note
     if not note:
         return []
+    if len(note) > NOTE_LINE:  # on two lines: a long note overran a narrow panel's left edge
+        import textwrap
+
+        note = "\n".join(textwrap.wrap(note, (len(note) + 1) // 2 + 8))
     return [f"{ax}.annotate({note!r}, xy=(1, 1.01), xycoords=\"axes fraction\", ha=\"right\", "
             "va=\"bottom\", fontsize=7, color=\"#555555\")"]
 
