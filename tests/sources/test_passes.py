@@ -163,3 +163,29 @@ def test_kept_answers_are_bounded(logged):
     total, _ = reads(con, start)
     assert src.run(exprs[-1]) == ROWS + KEPT_ANSWERS + 4
     assert reads(con, 0)[0] == total + 1  # only this check's own log query
+
+
+def test_panel_notes_stay_inside_the_figure(logged):
+    """A sampled hexbin's note beside its colour bar is long ("random sample of about 100,000
+    of 20,000,000 rows, drawn by DuckDB"): each panel's note lies inside its panel."""
+    import matplotlib.pyplot as plt
+    from matplotlib.text import Text
+
+    _, rel = logged
+    a = plotwise.advise(rel, "correlate", x="amount", y="score")
+    for d in a.shown():  # the note as a 20-million-row file has it
+        d.options.note = d.options.note.replace(f"{ROWS:,}", "20,000,000")
+    fig = a.show()
+    try:
+        from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+        canvas = FigureCanvasAgg(fig)
+        canvas.draw()
+        renderer = canvas.get_renderer()
+        notes = [t for t in fig.findobj(Text) if "drawn by DuckDB" in t.get_text()]
+        assert notes
+        for t in notes:  # inside its own panel (a subfigure), not over the next one
+            e, box = t.get_window_extent(renderer), t.get_figure(root=False).bbox
+            assert e.x0 >= box.x0 - 1 and e.x1 <= box.x1 + 1, t.get_text()
+    finally:
+        plt.close(fig)
