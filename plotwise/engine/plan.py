@@ -50,8 +50,11 @@ def engine_options(d: Design, stats: DesignStats, profile: Profile, working, bin
     d.options.complete_rows = n
     mode = engine_mode(d)
     if mode == "groups":
-        what = {"count": "counts", "mean": "averages", "median": "medians"}.get(d.stat, "totals")
-        d.options.note = f"{name} computed the {what} of all {n:,} rows"
+        if d.stat == "value":  # one row per group: the values themselves, not totals
+            d.options.note = f"all {n:,} values, one per group, fetched from {name}"
+        else:
+            what = {"count": "counts", "mean": "averages", "median": "medians"}.get(d.stat, "totals")
+            d.options.note = f"{name} computed the {what} of all {n:,} rows"
     elif mode == "bins":
         f = profile.fields[d.x]
         d.options.edges = engine_edges(working[d.x].dropna().to_numpy(dtype=float), n,

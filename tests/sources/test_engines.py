@@ -488,3 +488,15 @@ def test_dotted_column_names_group_in_duckdb(to_engine):
     finally:
         for f in figs:
             plt.close(f)
+
+
+def test_one_row_per_group_is_noted_as_values(to_engine):
+    """vega_datasets' stocks (one price per symbol and month, shipped with the package): the
+    line draws each price as it is, and the engine's panel note says values, not totals."""
+    from vega_datasets import data as vega
+
+    df = vega.stocks()
+    a = plotwise.advise(to_engine(df, "duckdb"), "trend", x="date", y="price", hue="symbol")
+    line = a.design("line")
+    assert line.stat == "value"
+    assert line.options.note == f"all {len(df):,} values, one per group, fetched from DuckDB"
