@@ -280,7 +280,8 @@ def _heatmap(c: Ctx) -> list[str]:
             # Whole numbers with few levels get one cell per value (25 bins would leave stripes).
             discrete = tuple(bool(c.f(v) and c.f(v).is_discrete) for v in (d.x, d.y))
             if not any(discrete):
-                bins = "bins=25"
+                logs = tuple(v in d.options.log_columns for v in (d.x, d.y))
+                bins = "bins=25" + (f", log_scale={logs!r}" if any(logs) else "")
             elif all(discrete):
                 bins = "discrete=True"
             else:  # one edge per whole number on the discrete axis, 25 bins on the other

@@ -142,7 +142,7 @@ def kinds_for(task: str) -> tuple[str, ...]:
     return tuple(k.name for k in REGISTRY.values() if task in k.task_fit)
 
 
-def _is_binned_pairs(design: Design) -> bool:
+def is_binned_pairs(design: Design) -> bool:
     """A heatmap of two variables' joint counts (or a correlation matrix): drawn from rows."""
     return design.kind == "heatmap" and (design.task == "correlate"
                                          or bool(design.options.matrix))
@@ -153,7 +153,7 @@ def engine_mode(design: Design) -> EngineMode:
     'bins' (row counts per histogram bin, computed by the engine) or 'rows' (a bounded sample).
     A histogram split by hue and a heatmap of joint counts take rows."""
     mode = REGISTRY[design.kind].engine
-    if mode == "groups" and _is_binned_pairs(design):
+    if mode == "groups" and is_binned_pairs(design):
         return "rows"
     if mode == "bins" and design.hue:
         return "rows"

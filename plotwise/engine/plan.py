@@ -8,7 +8,7 @@ from plotwise.engine.bins import choose_bins, engine_edges
 from plotwise.engine.colour import scheme_for
 from plotwise.engine.conditions import skewed
 from plotwise.engine.design import Design
-from plotwise.engine.kinds import REGISTRY, engine_mode, large_mode
+from plotwise.engine.kinds import REGISTRY, engine_mode, is_binned_pairs, large_mode
 from plotwise.engine.profile import Profile
 from plotwise.engine.rules import THRESHOLDS
 from plotwise.engine.stats import DesignStats
@@ -126,6 +126,17 @@ def histogram_bins(task: str, profile: Profile, working, x: str | None) -> tuple
     return choose_bins(vals, log=skewed(profile.fields[x]))
 
 
+def may_log(d: Design, profile: Profile) -> bool:
+    """Can the design put a skewed number on a log axis? Kinds with a log axis can; so can a
+    heatmap of two continuous numbers (its cells are then equal ratios wide, as the hexbin's
+    beside it, instead of most rows falling into the first column)."""
+    if REGISTRY[d.kind].log_axis:
+        return True
+    fields = [profile.fields.get(c) if c else None for c in (d.x, d.y)]
+    return is_binned_pairs(d) and not d.options.matrix and all(
+        f is not None and f.level == "quantitative" and not f.is_discrete for f in fields)
+
+
 def plan_design(d: Design, profile: Profile, stats: DesignStats, *, df, working, bins,
                 exact, palette, cmap_name) -> list[str]:
     """Fill ``d.options`` for this data; return the reasons the plan adds to the design's."""
@@ -136,7 +147,7 @@ def plan_design(d: Design, profile: Profile, stats: DesignStats, *, df, working,
     if cmap_name is not None:
         d.options.cmap = cmap_name
     logs = [c for c in (d.x, d.y) if c and skewed(profile.fields.get(c))]
-    if logs and REGISTRY[d.kind].log_axis:
+    if logs and may_log(d, profile):
         d.options.log_columns = logs
         d.log_scale = True
         extra.append(f"log axis for {', '.join(repr(c) for c in logs)}: right-skewed (skewness "

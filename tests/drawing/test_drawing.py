@@ -282,3 +282,29 @@ def test_category_against_many_valued_number_is_counted_in_ten_bins():
     assert counts.shape == (10, d["firm"].nunique())
     per_bin = np.histogram(d["invest"].dropna(), bins=10)[0]
     np.testing.assert_array_equal(counts.sum(axis=1)[::-1], per_bin)
+
+
+def test_heatmap_of_a_skewed_number_bins_on_its_logarithm():
+    """Engel's food expenditure against income (statsmodels; income is right-skewed): the
+    heatmap's 25 columns are equal steps of log10(income), so its cells count what
+    numpy.histogram2d counts on log10(income) (numpy is the reference) — with linear bins most
+    households fell into the first two columns."""
+    import statsmodels.api as sm
+    from matplotlib.collections import QuadMesh
+
+    df = sm.datasets.engel.load_pandas().data
+    a = plotwise.advise(df, "correlate", x="income", y="foodexp")
+    h = a.design("heatmap")
+    assert h.options.log_columns == ["income"]
+    fig = plt.figure()
+    try:
+        a.draw(h, ax=fig.subplots())
+        ax = fig.axes[0]
+        mesh = [c for c in ax.collections if isinstance(c, QuadMesh)][0]
+        cells = np.ma.masked_invalid(np.asarray(mesh.get_array(), dtype=float)).filled(0)
+        counts, x_edges, _ = np.histogram2d(np.log10(df["income"]), df["foodexp"], bins=25)
+        assert ax.get_xscale() == "log"
+        np.testing.assert_allclose(np.log10(mesh.get_coordinates()[0, :, 0]), x_edges)
+        np.testing.assert_array_equal(cells.reshape(25, 25), counts.T)
+    finally:
+        plt.close(fig)
