@@ -91,8 +91,8 @@ def _duckdb_moments(src: Source, numeric: dict[str, float], others: list[str], f
         v = row[f"e{i}"]
         out.setdefault(c, {})[what] = None if pd.isna(v) else float(v)
     for i, c in enumerate(labels):
-        values = _plain(frame.iloc[:, len(keys) + i][grouped[i] == 0].dropna())
-        out.setdefault(c, {})["labels"] = [u for u in values if u == u]
+        out.setdefault(c, {})["labels"] = list(
+            _plain(frame.iloc[:, len(keys) + i][grouped[i] == 0].dropna()))
     return out
 
 
@@ -129,7 +129,7 @@ def _dask_moments(src: Source, numeric: dict[str, float], others: list[str],
         values = dask.compute(*[lazy[k] for k in keys])
     for (c, what), v in zip(keys, values):
         if what == "labels":
-            out.setdefault(c, {})[what] = [u for u in v if u == u]
+            out.setdefault(c, {})[what] = list(v)
         else:
             out.setdefault(c, {})[what] = float(v) if v is not None else None
     return out
@@ -268,8 +268,7 @@ def _from_facts(facts, numeric: dict[str, float], few: tuple) -> dict[str, dict]
             out[c].update(facts.moments[c].power_sums(centre))
     for c in few:
         if c in facts.labels:
-            labels = facts.labels[c]
-            out[c]["labels"] = None if labels is None else [u for u in labels if u == u]
+            out[c]["labels"] = facts.labels[c]
     return out
 
 
@@ -292,6 +291,8 @@ def _exact_field(src: Source, fp, m: dict, n: int, centre: float | None, few: bo
     if few:
         labels = (m.get("labels") if src.engine in ("dask", "duckdb")
                   else distinct_values(src, c, limit))
+        if labels is not None:  # NaN in a float column is no label
+            labels = [u for u in labels if u == u]
         if labels is not None and len(labels) > limit:
             labels = None
         if labels is not None:
